@@ -1,0 +1,95 @@
+//! Checking a proposed plan (an MRP run's planned orders, a colleague's
+//! plan): its evaluation, the best plan's cost, and where it loses money.
+
+use serde::Serialize;
+
+use crate::eval::{evaluate, Evaluation};
+use crate::model::{Plan, Scenario};
+use crate::solve::{solve_exact, MethodResult};
+
+/// One plain-language finding about an item of the proposal.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Finding {
+    pub item: String,
+    /// Extra cost of the proposal over the best plan for this item.
+    pub extra_cost: f64,
+    pub message: String,
+}
+
+#[derive(Debug, Clone)]
+pub struct CheckReport {
+    pub evaluation: Evaluation,
+    /// The best plan lotwright finds; `None` when the scenario has no
+    /// feasible plan.
+    pub best: Option<MethodResult>,
+    pub findings: Vec<Finding>,
+}
+
+impl CheckReport {
+    /// What the best plan saves against the proposal.
+    pub fn saving(&self) -> Option<f64> {
+        let best = self.best.as_ref()?;
+        Some(self.evaluation.total_cost() - best.total_cost())
+    }
+}
+
+/// Evaluates `proposal` and compares it with the best plan.
+pub fn check(scenario: &Scenario, proposal: &Plan) -> CheckReport {
+    let evaluation = evaluate(scenario, proposal);
+    let best = solve_exact(scenario);
+    let best = best.evaluation.feasible.then_some(best);
+    let mut findings = Vec::new();
+    if let Some(best) = &best {
+        for (i, item) in scenario.items.iter().enumerate() {
+            let mine = &evaluation.items[i];
+            let theirs = &best.evaluation.items[i];
+            let extra = mine.costs.total() - theirs.costs.total();
+            if extra <= 1e-6 * (1.0 + theirs.costs.total().abs()) {
+                continue;
+            }
+            let mut reasons = Vec::new();
+            if mine.setups > theirs.setups {
+                reasons.push(format!(
+                    "{} setups where {} suffice",
+                    mine.setups, theirs.setups
+                ));
+            }
+            if mine.costs.holding > theirs.costs.holding + 1e-9 {
+                reasons.push(format!(
+                    "stock built earlier or larger than needed (holding {:.2} against {:.2})",
+                    mine.costs.holding, theirs.costs.holding
+                ));
+            }
+            if mine.costs.backlog > theirs.costs.backlog + 1e-9 {
+                reasons.push(format!(
+                    "backlog cost {:.2} against {:.2}",
+                    mine.costs.backlog, theirs.costs.backlog
+                ));
+            }
+            if mine.costs.unit > theirs.costs.unit + 1e-9 {
+                reasons.push(format!(
+                    "unit cost {:.2} against {:.2} (more units, or bought at dearer prices)",
+                    mine.costs.unit, theirs.costs.unit
+                ));
+            }
+            if reasons.is_empty() {
+                reasons.push("a costlier timing of its orders".to_string());
+            }
+            findings.push(Finding {
+                item: item.id.clone(),
+                extra_cost: extra,
+                message: reasons.join("; "),
+            });
+        }
+        findings.sort_by(|a, b| {
+            b.extra_cost
+                .total_cmp(&a.extra_cost)
+                .then(a.item.cmp(&b.item))
+        });
+    }
+    CheckReport {
+        evaluation,
+        best,
+        findings,
+    }
+}

@@ -1,0 +1,240 @@
+//! The command line: clap definitions, the three commands, exit codes. This
+//! is the only code that prints or exits.
+
+mod output;
+
+use std::io::Write;
+use std::path::PathBuf;
+
+use clap::{Args, Parser, Subcommand};
+
+use lotwright::error::{Error, Result};
+use lotwright::report::{self, table::Detail};
+use lotwright::single::eoq;
+use lotwright::solve::{self, Status};
+
+#[derive(Parser)]
+#[command(
+    name = "lotwright",
+    version,
+    about = "Least-cost production and purchase lots from a demand forecast, compared with the lot rules in use",
+    after_help = "Exit codes: 0 done; 1 the scenario has no feasible plan; 2 bad input or usage; 3 internal error; 4 the time limit ran out before any plan was found."
+)]
+pub struct Cli {
+    #[command(subcommand)]
+    command: Command,
+}
+
+#[derive(Subcommand)]
+enum Command {
+    /// Solve a scenario folder and compare the plan with the lot rules.
+    Plan(PlanArgs),
+    /// Evaluate a proposed plan (planned orders) against a scenario.
+    Check(CheckArgs),
+    /// The classic economic order quantity and its variants.
+    Eoq(EoqArgs),
+}
+
+#[derive(Args)]
+struct PlanArgs {
+    /// The scenario folder (scenario.toml, items.csv, demand.csv, ...).
+    dir: PathBuf,
+    /// Run only this method: optimal, lot-for-lot, fixed-lot, eoq, poq,
+    /// silver-meal, least-unit-cost or part-period-balancing.
+    #[arg(long)]
+    method: Option<String>,
+    /// Print one JSON object on stdout instead of tables.
+    #[arg(long)]
+    json: bool,
+    /// Write plan.csv and comparison.csv into this folder (created whole,
+    /// or not at all).
+    #[arg(long, value_name = "DIR")]
+    out: Option<PathBuf>,
+    /// Replace an existing output folder.
+    #[arg(long)]
+    force: bool,
+    /// Show the bucket records of every item.
+    #[arg(long)]
+    detail: bool,
+    /// Show the bucket records of this item (repeatable).
+    #[arg(long = "item", value_name = "ID")]
+    items: Vec<String>,
+}
+
+#[derive(Args)]
+struct CheckArgs {
+    /// The scenario folder.
+    dir: PathBuf,
+    /// The proposed orders: item, period or date (receipt bucket), quantity.
+    #[arg(long, value_name = "FILE")]
+    orders: PathBuf,
+    /// Print one JSON object on stdout instead of tables.
+    #[arg(long)]
+    json: bool,
+    /// Exit with code 1 when the proposal is not feasible.
+    #[arg(long)]
+    strict: bool,
+}
+
+#[derive(Args)]
+struct EoqArgs {
+    /// Demand per time unit (for example per year).
+    #[arg(long)]
+    demand: f64,
+    /// Cost of one setup or order.
+    #[arg(long, alias = "order-cost")]
+    setup_cost: f64,
+    /// Holding cost per unit per time unit.
+    #[arg(long)]
+    holding_cost: Option<f64>,
+    /// Finite production rate, per time unit (the EPQ model).
+    #[arg(long)]
+    production_rate: Option<f64>,
+    /// Cost per unit backordered per time unit (planned backorders).
+    #[arg(long)]
+    backorder_cost: Option<f64>,
+    /// All-units quantity discounts: Q:PRICE,... (a price holds from its
+    /// break quantity upward, inclusive).
+    #[arg(long, value_name = "Q:PRICE,...")]
+    price_breaks: Option<String>,
+    /// Holding cost as a fraction of the unit price per time unit (with
+    /// --price-breaks).
+    #[arg(long)]
+    carrying_rate: Option<f64>,
+    /// A chosen lot size, to see its cost penalty against the optimum.
+    #[arg(long)]
+    lot: Option<f64>,
+    /// Print one JSON object on stdout.
+    #[arg(long)]
+    json: bool,
+}
+
+/// Runs the command line and returns the process exit code.
+pub fn run() -> i32 {
+    let cli = match Cli::try_parse() {
+        Ok(cli) => cli,
+        Err(e) => {
+            let code = if e.use_stderr() { 2 } else { 0 };
+            let _ = e.print();
+            return code;
+        }
+    };
+    let result = match cli.command {
+        Command::Plan(args) => plan(args),
+        Command::Check(args) => check(args),
+        Command::Eoq(args) => eoq_command(args),
+    };
+    match result {
+        Ok(code) => code,
+        Err(e) => {
+            eprintln!("lotwright: {e}");
+            e.exit_code()
+        }
+    }
+}
+
+/// Writes to stdout; a closed pipe (`| head`) ends quietly.
+fn emit(text: &str) -> Result<()> {
+    let mut stdout = std::io::stdout().lock();
+    match stdout
+        .write_all(text.as_bytes())
+        .and_then(|_| stdout.flush())
+    {
+        Ok(()) => Ok(()),
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
+        Err(e) => Err(Error::Output {
+            path: PathBuf::from("<stdout>"),
+            message: e.to_string(),
+        }),
+    }
+}
+
+fn json_text(value: &serde_json::Value) -> Result<String> {
+    serde_json::to_string_pretty(value)
+        .map(|s| s + "\n")
+        .map_err(|e| Error::Internal(e.to_string()))
+}
+
+fn plan(args: PlanArgs) -> Result<i32> {
+    let scenario = lotwright::input::read_scenario(&args.dir)?;
+    for id in &args.items {
+        if scenario.item_index(id).is_none() {
+            return Err(Error::usage(format!(
+                "--item {id}: no such item in items.csv"
+            )));
+        }
+    }
+    // Check the output folder before the work, so a bad path fails early.
+    let target = match &args.out {
+        Some(out) => Some(output::Target::prepare(out, &args.dir, args.force)?),
+        None => None,
+    };
+    let options = solve::Options {
+        method: args.method.clone(),
+    };
+    let outcome = solve::plan_scenario(&scenario, &options)?;
+    if let Some(target) = target {
+        target.write(&[
+            ("plan.csv", report::csv::plan(&scenario, &outcome)),
+            (
+                "comparison.csv",
+                report::csv::comparison(&scenario, &outcome),
+            ),
+        ])?;
+    }
+    if args.json {
+        emit(&json_text(&report::json::plan(&scenario, &outcome))?)?;
+    } else {
+        let detail = Detail {
+            all: args.detail,
+            items: args.items.clone(),
+        };
+        emit(&report::table::plan(&scenario, &outcome, &detail))?;
+    }
+    Ok(match outcome.chosen.status {
+        Status::Optimal | Status::Feasible => 0,
+        Status::Infeasible => 1,
+        Status::Unknown => 4,
+    })
+}
+
+fn check(args: CheckArgs) -> Result<i32> {
+    let scenario = lotwright::input::read_scenario(&args.dir)?;
+    let proposal = lotwright::input::read_orders(&args.orders, &scenario)?;
+    let report = lotwright::check::check(&scenario, &proposal);
+    if args.json {
+        emit(&json_text(&report::json::check(&scenario, &report))?)?;
+    } else {
+        emit(&report::table::check(&scenario, &report))?;
+    }
+    Ok(if args.strict && !report.evaluation.feasible {
+        1
+    } else {
+        0
+    })
+}
+
+fn eoq_command(args: EoqArgs) -> Result<i32> {
+    let price_breaks = match &args.price_breaks {
+        Some(text) => Some(eoq::parse_price_breaks(text)?),
+        None => None,
+    };
+    let input = eoq::EoqInput {
+        demand: args.demand,
+        setup_cost: args.setup_cost,
+        holding_cost: args.holding_cost,
+        production_rate: args.production_rate,
+        backorder_cost: args.backorder_cost,
+        price_breaks,
+        carrying_rate: args.carrying_rate,
+        lot: args.lot,
+    };
+    let result = eoq::solve(&input)?;
+    if args.json {
+        let value = serde_json::to_value(&result).map_err(|e| Error::Internal(e.to_string()))?;
+        emit(&json_text(&value)?)?;
+    } else {
+        emit(&report::eoq::text(&result))?;
+    }
+    Ok(0)
+}

@@ -1,0 +1,392 @@
+//! The one evaluation of a plan: projected stock, shortages, backlog,
+//! safety-stock breaches, lot-rule violations, capacity use and cost by kind.
+//!
+//! Every method's plan goes through `evaluate`, and only here are cost and
+//! feasibility computed, so that the methods can be compared on equal terms.
+
+use serde::Serialize;
+
+use crate::model::{Item, Plan, Scenario};
+
+/// Cost by kind. `total` is their sum.
+#[derive(Debug, Clone, Copy, Default, PartialEq, Serialize)]
+pub struct Costs {
+    pub setup: f64,
+    pub holding: f64,
+    pub unit: f64,
+    pub backlog: f64,
+    pub overtime: f64,
+}
+
+impl Costs {
+    pub fn total(&self) -> f64 {
+        self.setup + self.holding + self.unit + self.backlog + self.overtime
+    }
+
+    pub fn add(&mut self, other: &Costs) {
+        self.setup += other.setup;
+        self.holding += other.holding;
+        self.unit += other.unit;
+        self.backlog += other.backlog;
+        self.overtime += other.overtime;
+    }
+}
+
+/// The bucket-by-bucket record of one item.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ItemRecord {
+    pub gross_requirement: Vec<f64>,
+    pub scheduled_receipts: Vec<f64>,
+    pub planned_receipts: Vec<f64>,
+    /// Planned releases by release bucket (receipt bucket minus lead time).
+    pub planned_releases: Vec<f64>,
+    /// Projected on hand at the end of each bucket; negative is a shortage
+    /// (or, for an item that allows it, backlog).
+    pub on_hand: Vec<f64>,
+    pub costs: Costs,
+    pub setups: usize,
+    /// Mean of the end-of-bucket stock (its positive part).
+    pub average_stock: f64,
+    pub ending_stock: f64,
+    pub ending_stock_value: f64,
+    /// Demand met on time over demand, in [0, 1] (1 when there is no demand).
+    pub fill_rate: f64,
+    /// The most buckets one planned lot covers (from its receipt to the next
+    /// planned receipt or the horizon's end): how far ahead stock is built.
+    pub longest_cover: usize,
+}
+
+/// Load of one resource, by release bucket.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ResourceLoad {
+    /// Capacity used by production (per-unit use times quantity).
+    pub production: Vec<f64>,
+    /// Capacity used by setups.
+    pub setup_time: Vec<f64>,
+    pub capacity: Vec<f64>,
+    pub overtime: Vec<f64>,
+    pub overtime_capacity: Vec<f64>,
+}
+
+impl ResourceLoad {
+    pub fn load(&self, t: usize) -> f64 {
+        self.production[t] + self.setup_time[t]
+    }
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Shortage {
+    pub item: String,
+    pub period: usize,
+    pub quantity: f64,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Overload {
+    pub resource: String,
+    pub period: usize,
+    pub load: f64,
+    /// Regular capacity plus the overtime the resource allows.
+    pub capacity: f64,
+    pub excess: f64,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum ViolationKind {
+    BelowMinLot,
+    NotLotMultiple,
+    AboveMaxLot,
+    /// Lead time puts the release before bucket 1.
+    ReleaseBeforeStart,
+    /// Safety stock breached where an order could have prevented it.
+    SafetyStock,
+    /// Below the ending-stock target, or backlog left at the end.
+    EndingStock,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Violation {
+    pub item: String,
+    pub period: usize,
+    pub kind: ViolationKind,
+    /// The quantity at fault (the lot, or the stock).
+    pub quantity: f64,
+    /// The limit it breaks.
+    pub limit: f64,
+    /// Whether this makes the plan infeasible (safety stock of an item that
+    /// allows backlog is a target only).
+    pub binding: bool,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Evaluation {
+    pub items: Vec<ItemRecord>,
+    pub resources: Vec<ResourceLoad>,
+    pub costs: Costs,
+    pub shortages: Vec<Shortage>,
+    pub overloads: Vec<Overload>,
+    pub violations: Vec<Violation>,
+    pub feasible: bool,
+    pub setups: usize,
+}
+
+impl Evaluation {
+    pub fn total_cost(&self) -> f64 {
+        self.costs.total()
+    }
+
+    /// Average stock value at unit cost, summed over items.
+    pub fn average_stock_value(&self, scenario: &Scenario) -> f64 {
+        self.items
+            .iter()
+            .zip(&scenario.items)
+            .map(|(record, item)| {
+                let periods = record.on_hand.len().max(1) as f64;
+                record
+                    .on_hand
+                    .iter()
+                    .zip(&item.unit_cost)
+                    .map(|(stock, cost)| stock.max(0.0) * cost)
+                    .sum::<f64>()
+                    / periods
+            })
+            .sum()
+    }
+
+    pub fn ending_stock_value(&self) -> f64 {
+        self.items.iter().map(|r| r.ending_stock_value).sum()
+    }
+
+    pub fn average_stock(&self) -> f64 {
+        self.items.iter().map(|r| r.average_stock).sum()
+    }
+}
+
+/// A tolerance for comparing quantities of one item: rounding noise from
+/// solvers must not count as a shortage.
+pub fn quantity_tolerance(item: &Item) -> f64 {
+    let scale: f64 = item.demand.iter().sum::<f64>() + item.initial_stock + item.ending_stock;
+    1e-6 * (1.0 + scale.abs()).clamp(1.0, 1e9)
+}
+
+fn is_multiple(quantity: f64, multiple: f64, tolerance: f64) -> bool {
+    let ratio = quantity / multiple;
+    (ratio - ratio.round()).abs() * multiple <= tolerance
+}
+
+/// Evaluates `plan` against `scenario`.
+pub fn evaluate(scenario: &Scenario, plan: &Plan) -> Evaluation {
+    let periods = scenario.periods();
+    let mut shortages = Vec::new();
+    let mut violations = Vec::new();
+    let mut records = Vec::with_capacity(scenario.items.len());
+    let mut costs = Costs::default();
+    for (i, item) in scenario.items.iter().enumerate() {
+        let receipts = &plan.receipts[i];
+        let record = evaluate_item(item, receipts, &mut shortages, &mut violations);
+        costs.add(&record.costs);
+        records.push(record);
+    }
+    let mut resources: Vec<ResourceLoad> = scenario
+        .resources
+        .iter()
+        .map(|r| ResourceLoad {
+            production: vec![0.0; periods],
+            setup_time: vec![0.0; periods],
+            capacity: r.capacity.clone(),
+            overtime: vec![0.0; periods],
+            overtime_capacity: r.overtime_capacity.clone(),
+        })
+        .collect();
+    for routing in &scenario.routings {
+        let record = &records[routing.item];
+        let load = &mut resources[routing.resource];
+        for (t, &quantity) in record.planned_releases.iter().enumerate() {
+            if quantity > 0.0 {
+                load.production[t] += routing.per_unit * quantity;
+                load.setup_time[t] += routing.setup_time;
+            }
+        }
+    }
+    let mut overloads = Vec::new();
+    for (resource, load) in scenario.resources.iter().zip(resources.iter_mut()) {
+        for t in 0..periods {
+            let used = load.load(t);
+            let tolerance = 1e-7 * (1.0 + load.capacity[t]);
+            let over = used - load.capacity[t];
+            if over > tolerance {
+                let overtime = over.min(load.overtime_capacity[t]);
+                load.overtime[t] = overtime;
+                costs.overtime += overtime * resource.overtime_cost;
+                let limit = load.capacity[t] + load.overtime_capacity[t];
+                if used - limit > tolerance {
+                    overloads.push(Overload {
+                        resource: resource.id.clone(),
+                        period: t + 1,
+                        load: used,
+                        capacity: limit,
+                        excess: used - limit,
+                    });
+                }
+            }
+        }
+    }
+    let feasible =
+        shortages.is_empty() && overloads.is_empty() && violations.iter().all(|v| !v.binding);
+    let setups = records.iter().map(|r| r.setups).sum();
+    Evaluation {
+        items: records,
+        resources,
+        costs,
+        shortages,
+        overloads,
+        violations,
+        feasible,
+        setups,
+    }
+}
+
+fn evaluate_item(
+    item: &Item,
+    receipts: &[f64],
+    shortages: &mut Vec<Shortage>,
+    violations: &mut Vec<Violation>,
+) -> ItemRecord {
+    let periods = item.periods();
+    let tolerance = quantity_tolerance(item);
+    let lead = item.lead_time;
+    let mut releases = vec![0.0; periods];
+    let mut on_hand = vec![0.0; periods];
+    let mut costs = Costs::default();
+    let mut setups = 0;
+    let mut stock = item.initial_stock;
+    let mut met_on_time = 0.0;
+    let violation = |period: usize, kind, quantity, limit, binding| Violation {
+        item: item.id.clone(),
+        period,
+        kind,
+        quantity,
+        limit,
+        binding,
+    };
+    for t in 0..periods {
+        let quantity = receipts[t];
+        if quantity > 0.0 {
+            setups += 1;
+            // Costs fall in the release bucket; a release before bucket 1 is
+            // flagged and costed at bucket 1's prices.
+            let release = t.checked_sub(lead);
+            let cost_bucket = release.unwrap_or(0);
+            costs.setup += item.setup_cost[cost_bucket];
+            costs.unit += item.unit_cost[cost_bucket] * quantity;
+            match release {
+                Some(r) => releases[r] += quantity,
+                None => violations.push(violation(
+                    t + 1,
+                    ViolationKind::ReleaseBeforeStart,
+                    quantity,
+                    (t + 1) as f64 - lead as f64,
+                    true,
+                )),
+            }
+            if item.min_lot > 0.0 && quantity < item.min_lot - tolerance {
+                violations.push(violation(
+                    t + 1,
+                    ViolationKind::BelowMinLot,
+                    quantity,
+                    item.min_lot,
+                    true,
+                ));
+            }
+            if let Some(multiple) = item.lot_multiple {
+                if !is_multiple(quantity, multiple, tolerance) {
+                    violations.push(violation(
+                        t + 1,
+                        ViolationKind::NotLotMultiple,
+                        quantity,
+                        multiple,
+                        true,
+                    ));
+                }
+            }
+            if let Some(max) = item.max_lot {
+                if quantity > max + tolerance {
+                    violations.push(violation(
+                        t + 1,
+                        ViolationKind::AboveMaxLot,
+                        quantity,
+                        max,
+                        true,
+                    ));
+                }
+            }
+        }
+        let available = stock + item.receipts[t] + quantity;
+        met_on_time += item.demand[t].min(available.max(0.0));
+        stock += item.receipts[t] + quantity - item.demand[t];
+        on_hand[t] = stock;
+        if stock >= 0.0 {
+            costs.holding += item.holding_cost[t] * stock;
+        } else if let Some(backlog_cost) = item.backlog_cost {
+            costs.backlog += backlog_cost * -stock;
+        }
+        if stock < -tolerance && !item.allows_backlog() {
+            shortages.push(Shortage {
+                item: item.id.clone(),
+                period: t + 1,
+                quantity: -stock,
+            });
+        }
+        let last = t + 1 == periods;
+        let floor = item.stock_floor(t);
+        // Safety stock before the lead time has passed cannot be restored by
+        // any order, so that breach is reported without being binding.
+        let target = if t < lead {
+            item.safety_stock
+        } else {
+            item.stock_target(t)
+        };
+        let short = stock < -tolerance && !item.allows_backlog();
+        if !short && stock < target - tolerance {
+            let ending = last
+                && (stock < -tolerance || (item.ending_stock > item.safety_stock && t >= lead));
+            let kind = if ending {
+                ViolationKind::EndingStock
+            } else {
+                ViolationKind::SafetyStock
+            };
+            let binding = stock < floor - tolerance;
+            violations.push(violation(t + 1, kind, stock, target, binding));
+        }
+    }
+    let total_demand: f64 = item.demand.iter().sum();
+    let average_stock = on_hand.iter().map(|s| s.max(0.0)).sum::<f64>() / periods.max(1) as f64;
+    let ending_stock = on_hand.last().copied().unwrap_or(item.initial_stock);
+    let ending_unit_cost = item.unit_cost.last().copied().unwrap_or(0.0);
+    let order_buckets: Vec<usize> = (0..periods).filter(|&t| receipts[t] > 0.0).collect();
+    let longest_cover = order_buckets
+        .iter()
+        .enumerate()
+        .map(|(k, &t)| order_buckets.get(k + 1).copied().unwrap_or(periods) - t)
+        .max()
+        .unwrap_or(0);
+    ItemRecord {
+        longest_cover,
+        gross_requirement: item.demand.clone(),
+        scheduled_receipts: item.receipts.clone(),
+        planned_receipts: receipts.to_vec(),
+        planned_releases: releases,
+        on_hand,
+        costs,
+        setups,
+        average_stock,
+        ending_stock,
+        ending_stock_value: ending_stock.max(0.0) * ending_unit_cost,
+        fill_rate: if total_demand > 0.0 {
+            (met_on_time / total_demand).min(1.0)
+        } else {
+            1.0
+        },
+    }
+}

@@ -1,0 +1,458 @@
+//! Reading a scenario folder: scenario.toml and the CSV files of the contract
+//! in PRODUCT.md, checked once, here, so everything after takes validated types.
+
+mod csvfile;
+mod orders;
+mod settings;
+
+pub use csvfile::{Cell, CsvFile, Record, Schema};
+pub use orders::read_orders;
+
+use std::collections::HashMap;
+use std::path::Path;
+
+use crate::error::{Error, Location, Result};
+use crate::model::{Calendar, DatePlace, Item, Resource, Routing, Scenario};
+
+const ITEMS: Schema = Schema {
+    known: &[
+        "item",
+        "setup_cost",
+        "holding_cost",
+        "holding_rate",
+        "unit_cost",
+        "initial_stock",
+        "safety_stock",
+        "lead_time",
+        "min_lot",
+        "lot_multiple",
+        "max_lot",
+        "backlog_cost",
+        "fixed_lot",
+        "ending_stock",
+    ],
+    required: &["item", "setup_cost"],
+};
+const DEMAND: Schema = Schema {
+    known: &["item", "period", "date", "quantity"],
+    required: &["item", "quantity"],
+};
+const COSTS: Schema = Schema {
+    known: &[
+        "item",
+        "period",
+        "date",
+        "setup_cost",
+        "holding_cost",
+        "unit_cost",
+    ],
+    required: &["item"],
+};
+const RESOURCES: Schema = Schema {
+    known: &["resource", "capacity", "overtime_capacity", "overtime_cost"],
+    required: &["resource", "capacity"],
+};
+const CAPACITY: Schema = Schema {
+    known: &[
+        "resource",
+        "period",
+        "date",
+        "capacity",
+        "overtime_capacity",
+    ],
+    required: &["resource", "capacity"],
+};
+const ROUTING: Schema = Schema {
+    known: &["item", "resource", "per_unit", "setup_time"],
+    required: &["item", "resource", "per_unit"],
+};
+
+/// Reads and validates the scenario in `dir`.
+pub fn read_scenario(dir: &Path) -> Result<Scenario> {
+    if !dir.is_dir() {
+        return Err(Error::input(
+            Location::file(dir),
+            "not a scenario folder (it must be a folder holding scenario.toml, items.csv and demand.csv)",
+        ));
+    }
+    let settings = settings::read(dir)?;
+    let calendar = settings.calendar.clone();
+    let (mut items, rates) = read_items(dir, &calendar)?;
+    let index: HashMap<String, usize> = items
+        .iter()
+        .enumerate()
+        .map(|(i, item)| (item.id.clone(), i))
+        .collect();
+    read_quantities(dir, "demand.csv", true, &calendar, &index, |item, t, q| {
+        items[item].demand[t] += q
+    })?;
+    read_quantities(
+        dir,
+        "receipts.csv",
+        false,
+        &calendar,
+        &index,
+        |item, t, q| items[item].receipts[t] += q,
+    )?;
+    read_cost_overrides(dir, &calendar, &index, &rates, &mut items)?;
+    let mut resources = read_resources(dir, &calendar)?;
+    read_capacity(dir, &calendar, &mut resources)?;
+    let routings = read_routing(dir, &index, &resources)?;
+    Ok(Scenario {
+        name: settings.name,
+        currency: settings.currency,
+        calendar,
+        items,
+        resources,
+        routings,
+    })
+}
+
+/// The bucket of a row, from its `period` or its `date` cell.
+pub fn bucket_of(file: &CsvFile, record: &Record, calendar: &Calendar) -> Result<usize> {
+    let period = file.cell(record, "period");
+    let date = file.cell(record, "date");
+    match (period, date) {
+        (Some(_), Some(cell)) => {
+            Err(cell.error("the row gives both a period and a date; give one of them"))
+        }
+        (None, None) => Err(Error::input(
+            file.row_location(record),
+            "the row gives neither a period nor a date; give one of them",
+        )),
+        (Some(cell), None) => {
+            let period = cell.whole()?;
+            if period == 0 || period > calendar.periods {
+                return Err(cell.error(format!(
+                    "period {period} is outside the horizon; periods run from 1 to {} (scenario.toml)",
+                    calendar.periods
+                )));
+            }
+            Ok(period - 1)
+        }
+        (None, Some(cell)) => {
+            let date = cell.date()?;
+            match calendar.place(date) {
+                DatePlace::Inside(t) => Ok(t),
+                DatePlace::Before => Err(cell.error(format!(
+                    "{date} is before the horizon starts on {}; drop the row, or move `start` in scenario.toml back to cover it",
+                    calendar.start
+                ))),
+                DatePlace::After => Err(cell.error(format!(
+                    "{date} is after the horizon, whose last bucket ends before {}; drop the row, or raise `periods` in scenario.toml",
+                    calendar.end()
+                ))),
+            }
+        }
+    }
+}
+
+fn optional(file: &CsvFile, record: &Record, name: &str, default: f64) -> Result<f64> {
+    match file.cell(record, name) {
+        Some(cell) => cell.non_negative(),
+        None => Ok(default),
+    }
+}
+
+/// The items, and for each the holding rate per bucket when its holding cost
+/// derives from unit cost (so a unit-cost override can follow it).
+fn read_items(dir: &Path, calendar: &Calendar) -> Result<(Vec<Item>, Vec<Option<f64>>)> {
+    let file = CsvFile::open(dir, "items.csv", &ITEMS, true)?
+        .ok_or_else(|| Error::Internal("items.csv vanished while being read".into()))?;
+    if !file.has_column("holding_cost") && !file.has_column("holding_rate") {
+        return Err(Error::input(
+            Location::line(&file.path, 1),
+            "items.csv needs a holding_cost column (per unit per bucket) or a holding_rate column (per year, times unit_cost)",
+        ));
+    }
+    let periods = calendar.periods;
+    let mut items: Vec<Item> = Vec::new();
+    let mut rates = Vec::new();
+    for record in &file.records {
+        let id_cell = file.required(record, "item")?;
+        let id = id_cell.text.to_string();
+        if items.iter().any(|item| item.id == id) {
+            return Err(id_cell.error(format!("item {id} appears twice; give each item one row")));
+        }
+        let setup_cost = file.required(record, "setup_cost")?.non_negative()?;
+        let unit_cost = optional(&file, record, "unit_cost", 0.0)?;
+        let holding = match (
+            file.cell(record, "holding_cost"),
+            file.cell(record, "holding_rate"),
+        ) {
+            (Some(_), Some(rate)) => {
+                return Err(rate
+                    .error("the row gives both holding_cost and holding_rate; give one of them"))
+            }
+            (None, None) => {
+                return Err(Error::input(
+                    file.row_location(record),
+                    format!(
+                        "item {id} has neither a holding_cost nor a holding_rate; give one of them"
+                    ),
+                ))
+            }
+            (Some(cell), None) => Holding::PerBucket(cell.non_negative()?),
+            (None, Some(cell)) => Holding::Rate(cell.non_negative()? / calendar.kind.per_year()),
+        };
+        let lead_time = match file.cell(record, "lead_time") {
+            Some(cell) => cell.whole()?,
+            None => 0,
+        };
+        let min_lot = optional(&file, record, "min_lot", 0.0)?;
+        let lot_multiple = match file.cell(record, "lot_multiple") {
+            Some(cell) => Some(cell.positive()?),
+            None => None,
+        };
+        let max_lot = match file.cell(record, "max_lot") {
+            Some(cell) => {
+                let value = cell.positive()?;
+                if value < min_lot {
+                    return Err(cell.error(format!(
+                        "max_lot {value} is below min_lot {min_lot}; no lot could meet both"
+                    )));
+                }
+                if let Some(multiple) = lot_multiple {
+                    if value < multiple {
+                        return Err(cell.error(format!(
+                            "max_lot {value} is below lot_multiple {multiple}; no lot could meet both"
+                        )));
+                    }
+                }
+                Some(value)
+            }
+            None => None,
+        };
+        let backlog_cost = match file.cell(record, "backlog_cost") {
+            Some(cell) => Some(cell.non_negative()?),
+            None => None,
+        };
+        let fixed_lot = match file.cell(record, "fixed_lot") {
+            Some(cell) => Some(cell.positive()?),
+            None => None,
+        };
+        if let (Some(multiple), Some(max)) = (lot_multiple, max_lot) {
+            let smallest = (min_lot / multiple).ceil().max(1.0) * multiple;
+            if smallest > max * (1.0 + 1e-12) {
+                return Err(Error::input(
+                    file.row_location(record),
+                    format!("no lot can meet min_lot {min_lot}, lot_multiple {multiple} and max_lot {max} together: the smallest allowed multiple is {smallest}"),
+                ));
+            }
+        }
+        let unit = vec![unit_cost; periods];
+        items.push(Item {
+            id,
+            setup_cost: vec![setup_cost; periods],
+            nominal_setup_cost: setup_cost,
+            nominal_holding_cost: match holding {
+                Holding::PerBucket(h) => h,
+                Holding::Rate(r) => r * unit_cost,
+            },
+            holding_cost: holding.per_bucket(&unit),
+            unit_cost: unit,
+            initial_stock: optional(&file, record, "initial_stock", 0.0)?,
+            safety_stock: optional(&file, record, "safety_stock", 0.0)?,
+            lead_time,
+            min_lot,
+            lot_multiple,
+            max_lot,
+            backlog_cost,
+            fixed_lot,
+            ending_stock: optional(&file, record, "ending_stock", 0.0)?,
+            demand: vec![0.0; periods],
+            receipts: vec![0.0; periods],
+        });
+        rates.push(holding.rate());
+    }
+    if items.is_empty() {
+        return Err(Error::input(
+            Location::file(&file.path),
+            "items.csv has a header but no items; add one row per item",
+        ));
+    }
+    Ok((items, rates))
+}
+
+#[derive(Clone, Copy)]
+enum Holding {
+    PerBucket(f64),
+    /// Yearly rate already divided by the buckets per year.
+    Rate(f64),
+}
+
+impl Holding {
+    fn per_bucket(self, unit_cost: &[f64]) -> Vec<f64> {
+        match self {
+            Holding::PerBucket(h) => vec![h; unit_cost.len()],
+            Holding::Rate(r) => unit_cost.iter().map(|c| r * c).collect(),
+        }
+    }
+
+    fn rate(self) -> Option<f64> {
+        match self {
+            Holding::PerBucket(_) => None,
+            Holding::Rate(r) => Some(r),
+        }
+    }
+}
+
+/// Reads a file of `item, period|date, quantity` rows and hands each to `add`.
+fn read_quantities(
+    dir: &Path,
+    name: &str,
+    required: bool,
+    calendar: &Calendar,
+    index: &HashMap<String, usize>,
+    mut add: impl FnMut(usize, usize, f64),
+) -> Result<()> {
+    let Some(file) = CsvFile::open(dir, name, &DEMAND, required)? else {
+        return Ok(());
+    };
+    if !file.has_column("period") && !file.has_column("date") {
+        return Err(Error::input(
+            Location::line(&file.path, 1),
+            format!("{name} needs a period column or a date column"),
+        ));
+    }
+    for record in &file.records {
+        let item = item_of(&file, record, index)?;
+        let t = bucket_of(&file, record, calendar)?;
+        let quantity = file.required(record, "quantity")?.non_negative()?;
+        add(item, t, quantity);
+    }
+    Ok(())
+}
+
+fn item_of(file: &CsvFile, record: &Record, index: &HashMap<String, usize>) -> Result<usize> {
+    let cell = file.required(record, "item")?;
+    index.get(cell.text).copied().ok_or_else(|| {
+        cell.error(format!(
+            "unknown item {}; every item must have a row in items.csv",
+            cell.text
+        ))
+    })
+}
+
+fn read_cost_overrides(
+    dir: &Path,
+    calendar: &Calendar,
+    index: &HashMap<String, usize>,
+    rates: &[Option<f64>],
+    items: &mut [Item],
+) -> Result<()> {
+    let Some(file) = CsvFile::open(dir, "costs.csv", &COSTS, false)? else {
+        return Ok(());
+    };
+    for record in &file.records {
+        let i = item_of(&file, record, index)?;
+        let t = bucket_of(&file, record, calendar)?;
+        let item = &mut items[i];
+        if let Some(cell) = file.cell(record, "setup_cost") {
+            item.setup_cost[t] = cell.non_negative()?;
+        }
+        if let Some(cell) = file.cell(record, "unit_cost") {
+            item.unit_cost[t] = cell.non_negative()?;
+            if let Some(rate) = rates[i] {
+                item.holding_cost[t] = rate * item.unit_cost[t];
+            }
+        }
+        if let Some(cell) = file.cell(record, "holding_cost") {
+            item.holding_cost[t] = cell.non_negative()?;
+        }
+    }
+    Ok(())
+}
+
+fn read_resources(dir: &Path, calendar: &Calendar) -> Result<Vec<Resource>> {
+    let Some(file) = CsvFile::open(dir, "resources.csv", &RESOURCES, false)? else {
+        return Ok(Vec::new());
+    };
+    let mut resources: Vec<Resource> = Vec::new();
+    for record in &file.records {
+        let id_cell = file.required(record, "resource")?;
+        let id = id_cell.text.to_string();
+        if resources.iter().any(|r| r.id == id) {
+            return Err(id_cell.error(format!(
+                "resource {id} appears twice; give each resource one row"
+            )));
+        }
+        let capacity = file.required(record, "capacity")?.non_negative()?;
+        let overtime_capacity = optional(&file, record, "overtime_capacity", 0.0)?;
+        let overtime_cost = optional(&file, record, "overtime_cost", 0.0)?;
+        if overtime_capacity > 0.0 && file.cell(record, "overtime_cost").is_none() {
+            return Err(Error::input(
+                file.row_location(record),
+                format!("resource {id} allows overtime but gives no overtime_cost; give its cost per unit of capacity (0 if it is free)"),
+            ));
+        }
+        resources.push(Resource {
+            id,
+            capacity: vec![capacity; calendar.periods],
+            overtime_capacity: vec![overtime_capacity; calendar.periods],
+            overtime_cost,
+        });
+    }
+    Ok(resources)
+}
+
+fn resource_of(file: &CsvFile, record: &Record, resources: &[Resource]) -> Result<usize> {
+    let cell = file.required(record, "resource")?;
+    resources
+        .iter()
+        .position(|r| r.id == cell.text)
+        .ok_or_else(|| {
+            cell.error(format!(
+                "unknown resource {}; every resource must have a row in resources.csv",
+                cell.text
+            ))
+        })
+}
+
+fn read_capacity(dir: &Path, calendar: &Calendar, resources: &mut [Resource]) -> Result<()> {
+    let Some(file) = CsvFile::open(dir, "capacity.csv", &CAPACITY, false)? else {
+        return Ok(());
+    };
+    for record in &file.records {
+        let r = resource_of(&file, record, resources)?;
+        let t = bucket_of(&file, record, calendar)?;
+        if let Some(cell) = file.cell(record, "capacity") {
+            resources[r].capacity[t] = cell.non_negative()?;
+        }
+        if let Some(cell) = file.cell(record, "overtime_capacity") {
+            resources[r].overtime_capacity[t] = cell.non_negative()?;
+        }
+    }
+    Ok(())
+}
+
+fn read_routing(
+    dir: &Path,
+    index: &HashMap<String, usize>,
+    resources: &[Resource],
+) -> Result<Vec<Routing>> {
+    let Some(file) = CsvFile::open(dir, "routing.csv", &ROUTING, false)? else {
+        return Ok(Vec::new());
+    };
+    let mut routings: Vec<Routing> = Vec::new();
+    for record in &file.records {
+        let item = item_of(&file, record, index)?;
+        let resource = resource_of(&file, record, resources)?;
+        if routings
+            .iter()
+            .any(|r| r.item == item && r.resource == resource)
+        {
+            return Err(Error::input(
+                file.row_location(record),
+                "this item and resource pair appears twice; give it one row",
+            ));
+        }
+        routings.push(Routing {
+            item,
+            resource,
+            per_unit: file.required(record, "per_unit")?.non_negative()?,
+            setup_time: optional(&file, record, "setup_time", 0.0)?,
+        });
+    }
+    Ok(routings)
+}

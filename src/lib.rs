@@ -1,0 +1,20 @@
+//! lotwright: least-cost lot sizing for production and purchase plans.
+//!
+//! A scenario folder (see docs/format.md) is read and validated by
+//! [`input::read_scenario`]; every method returns a [`model::Plan`]; the one
+//! [`eval::evaluate`] computes stock, feasibility and cost of any plan;
+//! [`solve::plan_scenario`] runs the exact method and the lot rules side by
+//! side; [`report`] renders the results. The library never prints or exits.
+
+#![forbid(unsafe_code)]
+
+pub mod check;
+pub mod error;
+pub mod eval;
+pub mod input;
+pub mod model;
+pub mod report;
+pub mod single;
+pub mod solve;
+
+pub use error::{Error, Result};

@@ -1,0 +1,139 @@
+//! The validated scenario: items with per-bucket costs, demand and receipts,
+//! resources with per-bucket capacity, routings, and the plan type that every
+//! method returns.
+//!
+//! Everything here has been checked at the edge (`crate::input`); code that
+//! takes these types may rely on finite, non-negative numbers and consistent
+//! lengths (every per-bucket vector has `calendar.periods` entries).
+
+mod calendar;
+mod plan;
+
+pub use calendar::{BucketKind, Calendar, DatePlace};
+pub use plan::Plan;
+
+use serde::Serialize;
+
+/// One item to be made or bought.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Item {
+    pub id: String,
+    /// Cost of a setup (or an order), by the bucket where the release falls.
+    pub setup_cost: Vec<f64>,
+    /// The setup cost of items.csv, before per-bucket overrides (the EOQ
+    /// rule sizes its lot from it).
+    pub nominal_setup_cost: f64,
+    /// The holding cost per unit per bucket from items.csv (or its rate times
+    /// unit cost), before per-bucket overrides.
+    pub nominal_holding_cost: f64,
+    /// Cost of holding one unit for one bucket, by bucket of the stock.
+    pub holding_cost: Vec<f64>,
+    /// Cost of one unit made or bought, by release bucket.
+    pub unit_cost: Vec<f64>,
+    pub initial_stock: f64,
+    pub safety_stock: f64,
+    /// Buckets between release and receipt.
+    pub lead_time: usize,
+    pub min_lot: f64,
+    /// `None` means continuous quantities.
+    pub lot_multiple: Option<f64>,
+    pub max_lot: Option<f64>,
+    /// Cost per unit backordered per bucket; `None` means no backlog allowed.
+    pub backlog_cost: Option<f64>,
+    /// The lot size of the plant's current fixed-lot rule, if it has one.
+    pub fixed_lot: Option<f64>,
+    /// Stock wanted at the end of the horizon (a floor on the last bucket's stock).
+    pub ending_stock: f64,
+    /// Gross requirement by bucket.
+    pub demand: Vec<f64>,
+    /// Scheduled receipts (open orders already released), by receipt bucket.
+    pub receipts: Vec<f64>,
+}
+
+impl Item {
+    /// True when the item carries a minimum lot, a lot multiple or a maximum lot.
+    pub fn has_lot_constraints(&self) -> bool {
+        self.min_lot > 0.0 || self.lot_multiple.is_some() || self.max_lot.is_some()
+    }
+
+    pub fn allows_backlog(&self) -> bool {
+        self.backlog_cost.is_some()
+    }
+
+    pub fn periods(&self) -> usize {
+        self.demand.len()
+    }
+
+    /// The stock wanted at the end of bucket `t`: safety stock, and in the
+    /// last bucket also the ending-stock target. Before the lead time has
+    /// passed no order can arrive, so no stock can be asked for there.
+    pub fn stock_target(&self, t: usize) -> f64 {
+        if t < self.lead_time {
+            return 0.0;
+        }
+        if t + 1 == self.periods() {
+            self.safety_stock.max(self.ending_stock)
+        } else {
+            self.safety_stock
+        }
+    }
+
+    /// The stock floor a plan must respect at the end of bucket `t`. An item
+    /// that allows backlog treats safety stock as a target only, so its floor
+    /// is the ending stock alone.
+    pub fn stock_floor(&self, t: usize) -> f64 {
+        if self.allows_backlog() {
+            if t + 1 == self.periods() && t >= self.lead_time {
+                self.ending_stock
+            } else {
+                0.0
+            }
+        } else {
+            self.stock_target(t)
+        }
+    }
+}
+
+/// A machine, line or crew with a capacity per bucket.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Resource {
+    pub id: String,
+    pub capacity: Vec<f64>,
+    pub overtime_capacity: Vec<f64>,
+    pub overtime_cost: f64,
+}
+
+/// How much of a resource an item uses.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Routing {
+    pub item: usize,
+    pub resource: usize,
+    pub per_unit: f64,
+    pub setup_time: f64,
+}
+
+/// A whole, validated planning scenario.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Scenario {
+    pub name: String,
+    pub currency: Option<String>,
+    pub calendar: Calendar,
+    pub items: Vec<Item>,
+    pub resources: Vec<Resource>,
+    pub routings: Vec<Routing>,
+}
+
+impl Scenario {
+    pub fn periods(&self) -> usize {
+        self.calendar.periods
+    }
+
+    pub fn item_index(&self, id: &str) -> Option<usize> {
+        self.items.iter().position(|item| item.id == id)
+    }
+
+    /// The routings of one item.
+    pub fn routings_of(&self, item: usize) -> impl Iterator<Item = &Routing> {
+        self.routings.iter().filter(move |r| r.item == item)
+    }
+}

@@ -1,0 +1,70 @@
+//! Renderers: pure functions from results to text or bytes. They format;
+//! they never compute costs or feasibility (that is `eval`'s job).
+
+pub mod csv;
+pub mod eoq;
+pub mod json;
+pub mod table;
+
+/// A quantity as a planner reads it: whole numbers without decimals, others
+/// with up to three.
+pub fn quantity(value: f64) -> String {
+    let value = if value.abs() < 5e-10 { 0.0 } else { value };
+    if (value - value.round()).abs() < 1e-9 {
+        format!("{:.0}", value.round())
+    } else {
+        let text = format!("{value:.3}");
+        text.trim_end_matches('0').trim_end_matches('.').to_string()
+    }
+}
+
+/// Money with two decimals and thousands separators.
+pub fn money(value: f64) -> String {
+    let value = if value.abs() < 0.005 { 0.0 } else { value };
+    let text = format!("{:.2}", value.abs());
+    let (whole, cents) = text.split_once('.').unwrap_or((&text, "00"));
+    let mut grouped = String::new();
+    for (i, digit) in whole.chars().enumerate() {
+        if i > 0 && (whole.len() - i) % 3 == 0 {
+            grouped.push(',');
+        }
+        grouped.push(digit);
+    }
+    let sign = if value < 0.0 { "-" } else { "" };
+    format!("{sign}{grouped}.{cents}")
+}
+
+/// A value rounded for machine output: 9 significant decimals, so that the
+/// JSON is stable across platforms and free of float noise.
+pub fn clean(value: f64) -> f64 {
+    if !value.is_finite() {
+        return value;
+    }
+    let rounded = (value * 1e9).round() / 1e9;
+    if rounded == 0.0 {
+        0.0
+    } else {
+        rounded
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn money_groups_thousands() {
+        assert_eq!(money(1234567.891), "1,234,567.89");
+        assert_eq!(money(-12.5), "-12.50");
+        assert_eq!(money(0.001), "0.00");
+        assert_eq!(money(999.999), "1,000.00");
+    }
+
+    #[test]
+    fn quantities_drop_needless_decimals() {
+        assert_eq!(quantity(1200.0), "1200");
+        assert_eq!(quantity(12.5), "12.5");
+        assert_eq!(quantity(1.0 / 3.0), "0.333");
+        assert_eq!(quantity(-0.0), "0");
+    }
+}

@@ -1,0 +1,439 @@
+//! Terminal output: the plan, the comparison and the bucket records, laid out
+//! to fit a 100-column terminal with numbers right-aligned.
+
+use std::fmt::Write;
+
+use super::{money, quantity};
+use crate::check::CheckReport;
+use crate::eval::{Evaluation, ViolationKind};
+use crate::model::Scenario;
+use crate::solve::{cautions, MethodResult, Outcome, Status};
+
+/// How much of the bucket records to show.
+#[derive(Debug, Clone, Default)]
+pub struct Detail {
+    /// Records of every item (otherwise only when there are few items).
+    pub all: bool,
+    /// Records of just these items.
+    pub items: Vec<String>,
+}
+
+/// The widest line the terminal output may have.
+pub const WIDTH: usize = 100;
+/// Items up to which the records are shown without `--detail`.
+const FEW_ITEMS: usize = 3;
+
+/// A simple text table: columns of numbers right-aligned, text left-aligned.
+struct Grid {
+    rows: Vec<Vec<String>>,
+}
+
+impl Grid {
+    fn new(header: &[&str]) -> Grid {
+        Grid {
+            rows: vec![header.iter().map(|s| s.to_string()).collect()],
+        }
+    }
+
+    fn push(&mut self, row: Vec<String>) {
+        self.rows.push(row);
+    }
+
+    fn render(&self, out: &mut String) {
+        let columns = self.rows.iter().map(Vec::len).max().unwrap_or(0);
+        let widths: Vec<usize> = (0..columns)
+            .map(|c| {
+                self.rows
+                    .iter()
+                    .map(|r| r.get(c).map_or(0, |s| s.chars().count()))
+                    .max()
+                    .unwrap_or(0)
+            })
+            .collect();
+        let numeric: Vec<bool> = (0..columns)
+            .map(|c| {
+                c > 0
+                    && self.rows[1..].iter().all(|r| {
+                        r.get(c).is_none_or(|cell| {
+                            let bare: String = cell
+                                .chars()
+                                .filter(|ch| !matches!(ch, ',' | '%' | '+' | ' '))
+                                .collect();
+                            bare == "-"
+                                || bare.parse::<f64>().is_ok()
+                                || bare.len() == 5 && bare.as_bytes()[2] == b'-'
+                        })
+                    })
+            })
+            .collect();
+        for row in &self.rows {
+            let mut line = String::new();
+            for (c, cell) in row.iter().enumerate() {
+                let gap = if c == 0 { "" } else { "  " };
+                if numeric[c] {
+                    let _ = write!(line, "{gap}{cell:>width$}", width = widths[c]);
+                } else {
+                    let _ = write!(line, "{gap}{cell:<width$}", width = widths[c]);
+                }
+            }
+            out.push_str(line.trim_end());
+            out.push('\n');
+        }
+    }
+}
+
+fn status_words(result: &MethodResult) -> String {
+    match result.status {
+        Status::Optimal => "proven optimal".to_string(),
+        Status::Feasible => match result.gap() {
+            Some(gap) => format!(
+                "feasible, not proven optimal: lower bound {}, gap {:.2} %",
+                money(result.lower_bound.unwrap_or(0.0)),
+                100.0 * gap
+            ),
+            None => "feasible".to_string(),
+        },
+        Status::Infeasible => "infeasible".to_string(),
+        Status::Unknown => "unknown: no plan found in time".to_string(),
+    }
+}
+
+fn heading(scenario: &Scenario, out: &mut String) {
+    let calendar = &scenario.calendar;
+    let _ = writeln!(
+        out,
+        "{}: {} items, {} {}s from {}{}",
+        scenario.name,
+        scenario.items.len(),
+        calendar.periods,
+        calendar.kind.name(),
+        calendar.label(0),
+        scenario
+            .currency
+            .as_ref()
+            .map(|c| format!(", costs in {c}"))
+            .unwrap_or_default()
+    );
+}
+
+/// The whole terminal report of `plan`.
+pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
+    let mut out = String::new();
+    heading(scenario, &mut out);
+    let chosen = &outcome.chosen;
+    let solver = chosen.solver();
+    let _ = writeln!(
+        out,
+        "\nPlan: {}, {}{}. Total cost {}.",
+        chosen.method,
+        status_words(chosen),
+        if solver.is_empty() {
+            String::new()
+        } else {
+            format!(" (solver {solver})")
+        },
+        money(chosen.total_cost())
+    );
+    for note in &chosen.notes {
+        let _ = writeln!(out, "  Note: {note}");
+    }
+    comparison(scenario, outcome, &mut out);
+    faults(&chosen.evaluation, &mut out);
+    orders(scenario, chosen, &mut out);
+    let few = scenario.items.len() <= FEW_ITEMS;
+    let mut shown = 0;
+    for (i, item) in scenario.items.iter().enumerate() {
+        if detail.all || few || detail.items.iter().any(|id| id == &item.id) {
+            records(scenario, &chosen.evaluation, i, &mut out);
+            shown += 1;
+        }
+    }
+    if shown == 0 {
+        item_summary(scenario, &chosen.evaluation, &mut out);
+        let _ = writeln!(
+            out,
+            "\nBucket records: add --detail for every item, or --item ID for one."
+        );
+    }
+    for caution in cautions(scenario, chosen) {
+        let _ = writeln!(out, "\nCaution: {caution}");
+    }
+    out
+}
+
+fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
+    let rows = &outcome.comparison;
+    let show_backlog = rows.iter().any(|r| r.evaluation.costs.backlog > 0.0);
+    let show_overtime = rows.iter().any(|r| r.evaluation.costs.overtime > 0.0);
+    let mut header = vec!["method", "status", "total cost", "setup", "holding", "unit"];
+    if show_backlog {
+        header.push("backlog");
+    }
+    if show_overtime {
+        header.push("overtime");
+    }
+    let _ = writeln!(out, "\nCost by method");
+    let mut grid = Grid::new(&header);
+    for r in rows {
+        let c = &r.evaluation.costs;
+        let mut row = vec![
+            r.method.to_string(),
+            r.status.name().to_string(),
+            money(c.total()),
+            money(c.setup),
+            money(c.holding),
+            money(c.unit),
+        ];
+        if show_backlog {
+            row.push(money(c.backlog));
+        }
+        if show_overtime {
+            row.push(money(c.overtime));
+        }
+        grid.push(row);
+    }
+    grid.render(out);
+    let reference = rows
+        .iter()
+        .find(|r| r.method == "optimal" && r.evaluation.feasible)
+        .map(|r| r.total_cost());
+    let _ = writeln!(out, "\nStock and setups by method");
+    let mut grid = Grid::new(&[
+        "method",
+        "setups",
+        "avg stock",
+        "avg stock value",
+        "end stock",
+        "end stock value",
+        "vs optimal",
+    ]);
+    for r in rows {
+        let e = &r.evaluation;
+        let extra = match reference {
+            Some(best) if best.abs() > 1e-9 => {
+                format!("{:+.1} %", 100.0 * (e.total_cost() - best) / best.abs())
+            }
+            _ => "-".to_string(),
+        };
+        grid.push(vec![
+            r.method.to_string(),
+            e.setups.to_string(),
+            quantity((e.average_stock() * 10.0).round() / 10.0),
+            money(e.average_stock_value(scenario)),
+            quantity(e.items.iter().map(|i| i.ending_stock).sum()),
+            money(e.ending_stock_value()),
+            extra,
+        ]);
+    }
+    grid.render(out);
+    for r in rows {
+        if r.method != "optimal" {
+            for note in &r.notes {
+                let _ = writeln!(out, "  {}: {note}", r.method);
+            }
+        }
+    }
+}
+
+fn faults(evaluation: &Evaluation, out: &mut String) {
+    if !evaluation.shortages.is_empty() {
+        let _ = writeln!(out, "\nShortages");
+        let mut grid = Grid::new(&["item", "period", "short"]);
+        for s in &evaluation.shortages {
+            grid.push(vec![
+                s.item.clone(),
+                s.period.to_string(),
+                quantity(s.quantity),
+            ]);
+        }
+        grid.render(out);
+    }
+    if !evaluation.overloads.is_empty() {
+        let _ = writeln!(out, "\nCapacity overloads (load includes setup time)");
+        let mut grid = Grid::new(&["resource", "period", "load", "capacity", "over by"]);
+        for o in &evaluation.overloads {
+            grid.push(vec![
+                o.resource.clone(),
+                o.period.to_string(),
+                quantity(o.load),
+                quantity(o.capacity),
+                quantity(o.excess),
+            ]);
+        }
+        grid.render(out);
+    }
+    if !evaluation.violations.is_empty() {
+        let _ = writeln!(out, "\nRule breaches");
+        let mut grid = Grid::new(&["item", "period", "what", "quantity", "limit", "binding"]);
+        for v in &evaluation.violations {
+            let what = match v.kind {
+                ViolationKind::BelowMinLot => "lot below min_lot",
+                ViolationKind::NotLotMultiple => "lot not a lot_multiple",
+                ViolationKind::AboveMaxLot => "lot above max_lot",
+                ViolationKind::ReleaseBeforeStart => "release before period 1",
+                ViolationKind::SafetyStock => "stock below safety stock",
+                ViolationKind::EndingStock => "ending stock below target",
+            };
+            grid.push(vec![
+                v.item.clone(),
+                v.period.to_string(),
+                what.to_string(),
+                quantity(v.quantity),
+                quantity(v.limit),
+                if v.binding { "yes" } else { "no" }.to_string(),
+            ]);
+        }
+        grid.render(out);
+    }
+}
+
+fn orders(scenario: &Scenario, result: &MethodResult, out: &mut String) {
+    let _ = writeln!(out, "\nPlanned orders ({})", result.method);
+    let mut grid = Grid::new(&[
+        "item",
+        "receipt",
+        "date",
+        "release",
+        "release date",
+        "quantity",
+    ]);
+    let rows = super::json::order_rows(scenario, &result.plan);
+    if rows.is_empty() {
+        let _ = writeln!(out, "  none: stock and open orders cover the horizon");
+        return;
+    }
+    for (item, period, date, release, release_date, q) in rows {
+        grid.push(vec![
+            item,
+            period.to_string(),
+            date,
+            release.to_string(),
+            release_date,
+            quantity(q),
+        ]);
+    }
+    grid.render(out);
+}
+
+fn item_summary(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
+    let _ = writeln!(out, "\nItems");
+    let mut grid = Grid::new(&[
+        "item",
+        "setups",
+        "total cost",
+        "avg stock",
+        "end stock",
+        "fill rate",
+    ]);
+    for (item, record) in scenario.items.iter().zip(&evaluation.items) {
+        grid.push(vec![
+            item.id.clone(),
+            record.setups.to_string(),
+            money(record.costs.total()),
+            quantity((record.average_stock * 10.0).round() / 10.0),
+            quantity(record.ending_stock),
+            format!("{:.1} %", 100.0 * record.fill_rate),
+        ]);
+    }
+    grid.render(out);
+}
+
+/// The bucket-by-bucket record of one item, in chunks that fit the width.
+fn records(scenario: &Scenario, evaluation: &Evaluation, i: usize, out: &mut String) {
+    let item = &scenario.items[i];
+    let record = &evaluation.items[i];
+    let _ = writeln!(
+        out,
+        "\n{}: {} setups, cost {}, lead time {}, safety stock {}",
+        item.id,
+        record.setups,
+        money(record.costs.total()),
+        item.lead_time,
+        quantity(item.safety_stock)
+    );
+    let calendar = &scenario.calendar;
+    let periods = scenario.periods();
+    let lines: [(&str, &Vec<f64>); 5] = [
+        ("gross req.", &record.gross_requirement),
+        ("sched. receipts", &record.scheduled_receipts),
+        ("planned receipts", &record.planned_receipts),
+        ("planned releases", &record.planned_releases),
+        ("on hand", &record.on_hand),
+    ];
+    let per_chunk = 9;
+    let mut start = 0;
+    while start < periods {
+        let end = (start + per_chunk).min(periods);
+        let mut header = vec!["period".to_string()];
+        let mut dates = vec!["starts".to_string()];
+        for t in start..end {
+            header.push((t + 1).to_string());
+            dates.push(calendar.short_label(t));
+        }
+        let mut grid = Grid {
+            rows: vec![header, dates],
+        };
+        for (label, values) in lines {
+            let mut row = vec![label.to_string()];
+            row.extend(values[start..end].iter().map(|&v| {
+                let v = if label == "on hand" { v } else { v.max(0.0) };
+                quantity((v * 100.0).round() / 100.0)
+            }));
+            grid.push(row);
+        }
+        grid.render(out);
+        start = end;
+    }
+}
+
+/// The terminal report of `check`.
+pub fn check(scenario: &Scenario, report: &CheckReport) -> String {
+    let mut out = String::new();
+    heading(scenario, &mut out);
+    let evaluation = &report.evaluation;
+    let _ = writeln!(
+        out,
+        "\nProposed plan: {}, total cost {} ({} setups).",
+        if evaluation.feasible {
+            "feasible"
+        } else {
+            "NOT feasible"
+        },
+        money(evaluation.total_cost()),
+        evaluation.setups
+    );
+    let c = &evaluation.costs;
+    let _ = writeln!(
+        out,
+        "  setup {}, holding {}, unit {}, backlog {}, overtime {}",
+        money(c.setup),
+        money(c.holding),
+        money(c.unit),
+        money(c.backlog),
+        money(c.overtime)
+    );
+    match &report.best {
+        Some(best) => {
+            let _ = writeln!(
+                out,
+                "Best plan: {} ({}); the proposal costs {} more.",
+                money(best.total_cost()),
+                status_words(best),
+                money(report.saving().unwrap_or(0.0))
+            );
+        }
+        None => {
+            let _ = writeln!(out, "The scenario itself has no feasible plan.");
+        }
+    }
+    faults(evaluation, &mut out);
+    if !report.findings.is_empty() {
+        let _ = writeln!(out, "\nWhere the proposal loses money");
+        let mut grid = Grid::new(&["item", "extra cost", "why"]);
+        for f in &report.findings {
+            grid.push(vec![f.item.clone(), money(f.extra_cost), f.message.clone()]);
+        }
+        grid.render(&mut out);
+    }
+    out
+}
