@@ -3,6 +3,7 @@
 
 use serde::Serialize;
 
+use crate::capacity::milp::MilpOptions;
 use crate::eval::{evaluate, Evaluation};
 use crate::model::{Plan, Scenario};
 use crate::solve::{solve_exact, MethodResult};
@@ -34,9 +35,9 @@ impl CheckReport {
 }
 
 /// Evaluates `proposal` and compares it with the best plan.
-pub fn check(scenario: &Scenario, proposal: &Plan) -> CheckReport {
+pub fn check(scenario: &Scenario, proposal: &Plan, options: &MilpOptions) -> CheckReport {
     let evaluation = evaluate(scenario, proposal);
-    let best = solve_exact(scenario);
+    let best = solve_exact(scenario, options);
     let best = best.evaluation.feasible.then_some(best);
     let mut findings = Vec::new();
     if let Some(best) = &best {

@@ -8,6 +8,7 @@
 
 #![forbid(unsafe_code)]
 
+pub mod capacity;
 pub mod check;
 pub mod error;
 pub mod eval;

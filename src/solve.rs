@@ -4,6 +4,7 @@
 
 use serde::Serialize;
 
+use crate::capacity::{self, milp::MilpOptions};
 use crate::eval::{evaluate, Evaluation};
 use crate::model::{Plan, Scenario};
 use crate::single::exact;
@@ -90,6 +91,8 @@ impl MethodResult {
 pub struct Options {
     /// Only this method (its output name); `None` for all.
     pub method: Option<String>,
+    /// Limits of the MILP.
+    pub milp: MilpOptions,
 }
 
 /// The names every method goes by, in the order of the comparison.
@@ -132,7 +135,7 @@ pub fn plan_scenario(scenario: &Scenario, options: &Options) -> crate::error::Re
     let wanted = |name: &str| options.method.as_deref().is_none_or(|m| m == name);
     let mut comparison = Vec::new();
     if wanted("optimal") {
-        comparison.push(solve_exact(scenario));
+        comparison.push(solve_exact(scenario, &options.milp));
     }
     for rule in Rule::ALL {
         if rule == Rule::FixedLot && !has_fixed_lot(scenario) {
@@ -193,72 +196,102 @@ pub fn run_rule(scenario: &Scenario, rule: Rule) -> MethodResult {
     }
 }
 
-/// The exact method: per item, the dynamic program; lot constraints and
-/// shared capacity are honoured or the result says it is not proven.
-pub fn solve_exact(scenario: &Scenario) -> MethodResult {
+/// The exact method: per item without shared capacity, the dynamic program;
+/// per group of items that share resources, the MILP. Lot constraints and
+/// capacity are honoured, or the result says it is not proven.
+pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
     let periods = scenario.periods();
+    let started = std::time::Instant::now();
     let mut plan = Plan::empty(scenario.items.len(), periods);
     let mut lower_bound = 0.0;
-    let mut proven = true;
-    let mut infeasible = Vec::new();
     let mut notes = Vec::new();
     let mut components = Vec::new();
-    for (i, item) in scenario.items.iter().enumerate() {
+    for group in capacity::components(scenario) {
         let mut component = Component {
-            items: vec![item.id.clone()],
-            resources: Vec::new(),
+            items: group
+                .items
+                .iter()
+                .map(|&i| scenario.items[i].id.clone())
+                .collect(),
+            resources: group
+                .resources
+                .iter()
+                .map(|&r| scenario.resources[r].id.clone())
+                .collect(),
             solver: "dp",
             status: Status::Optimal,
         };
-        let Some(exact) = exact::solve(item) else {
-            component.status = Status::Infeasible;
+        // Need before the lead time has passed makes an item infeasible
+        // whatever the capacity; the dynamic program finds it.
+        let mut single = Vec::new();
+        for &i in &group.items {
+            let item = &scenario.items[i];
+            match exact::solve(item) {
+                Some(exact) => single.push((i, exact)),
+                None => {
+                    component.status = Status::Infeasible;
+                    notes.push(explain_item(item));
+                    plan.receipts[i] = rules::plan(item, Sizing::Rule(Rule::LotForLot));
+                }
+            }
+        }
+        if component.status == Status::Infeasible {
+            for (i, exact) in single {
+                plan.receipts[i] = exact.receipts;
+            }
             components.push(component);
-            infeasible.push(explain_item(item));
-            plan.receipts[i] = rules::plan(item, Sizing::Rule(Rule::LotForLot));
             continue;
-        };
-        lower_bound += exact.cost;
-        if item.has_lot_constraints() && !meets_lot_constraints(item, &exact.receipts) {
-            // The unconstrained optimum is a lower bound; a plan that meets
-            // the constraints is built from its lots, and the better of that
-            // and the rules' plans is kept.
-            proven = false;
-            component.status = Status::Feasible;
-            plan.receipts[i] = best_constrained(scenario, i, &exact.receipts);
-            notes.push(format!(
-                "item {}: the least-cost plan without lot constraints breaks min_lot, lot_multiple or max_lot; the plan shown meets them but is not proven optimal (exact lot constraints come with the capacitated solver)",
-                item.id
-            ));
+        }
+        if group.resources.is_empty() {
+            for (i, exact) in single {
+                let item = &scenario.items[i];
+                lower_bound += exact.cost;
+                if item.has_lot_constraints() && !meets_lot_constraints(item, &exact.receipts) {
+                    // Lot constraints: the MILP handles them exactly.
+                    let result =
+                        capacity::milp::solve(scenario, &[i], &remaining(options, started));
+                    lower_bound -= exact.cost;
+                    component.solver = "milp";
+                    take_milp(
+                        scenario,
+                        &group_of(i),
+                        &result,
+                        &mut plan,
+                        &mut component,
+                        &mut lower_bound,
+                        &mut notes,
+                    );
+                } else {
+                    plan.receipts[i] = exact.receipts;
+                }
+            }
         } else {
-            plan.receipts[i] = exact.receipts;
+            let result =
+                capacity::milp::solve(scenario, &group.items, &remaining(options, started));
+            component.solver = "milp";
+            take_milp(
+                scenario,
+                &group,
+                &result,
+                &mut plan,
+                &mut component,
+                &mut lower_bound,
+                &mut notes,
+            );
         }
         components.push(component);
     }
     let evaluation = evaluate(scenario, &plan);
-    let mut status = if !infeasible.is_empty() {
-        notes.extend(infeasible);
+    let worst = |s: Status| components.iter().any(|c| c.status == s);
+    let status = if worst(Status::Infeasible) {
         Status::Infeasible
-    } else if proven {
-        Status::Optimal
-    } else {
+    } else if worst(Status::Unknown) {
+        Status::Unknown
+    } else if worst(Status::Feasible) {
         Status::Feasible
+    } else {
+        Status::Optimal
     };
-    if status != Status::Infeasible && !scenario.routings.is_empty() {
-        // The plan ignores capacity. It is the capacitated optimum when it
-        // fits without overtime (a relaxation's optimum that is feasible).
-        let overtime: f64 = evaluation
-            .resources
-            .iter()
-            .flat_map(|r| r.overtime.iter())
-            .sum();
-        if !evaluation.overloads.is_empty() {
-            status = Status::Infeasible;
-            notes.push("the least-cost plan without capacity limits overloads a resource; the capacitated solver is needed to plan within capacity".into());
-        } else if overtime > 0.0 {
-            status = Status::Feasible;
-            notes.push("the plan uses overtime; without the capacitated solver it is not proven least-cost".into());
-        }
-    }
     let lower_bound = match status {
         Status::Optimal => Some(evaluation.total_cost()),
         Status::Feasible => Some(lower_bound.min(evaluation.total_cost())),
@@ -275,48 +308,80 @@ pub fn solve_exact(scenario: &Scenario) -> MethodResult {
     }
 }
 
+fn group_of(i: usize) -> capacity::Group {
+    capacity::Group {
+        items: vec![i],
+        resources: Vec::new(),
+    }
+}
+
+/// The options with the time limit cut to what is left of the budget.
+fn remaining(options: &MilpOptions, started: std::time::Instant) -> MilpOptions {
+    let left = options.time_limit - started.elapsed().as_secs_f64();
+    MilpOptions {
+        time_limit: left.max(0.5),
+        ..options.clone()
+    }
+}
+
+/// Folds a MILP result for `group` into the plan and the component.
+fn take_milp(
+    scenario: &Scenario,
+    group: &capacity::Group,
+    result: &capacity::milp::MilpResult,
+    plan: &mut Plan,
+    component: &mut Component,
+    lower_bound: &mut f64,
+    notes: &mut Vec<String>,
+) {
+    use capacity::milp::MilpStatus;
+    let names = component.items.join(", ");
+    match result.status {
+        MilpStatus::Optimal | MilpStatus::Feasible => {
+            for (k, &i) in group.items.iter().enumerate() {
+                plan.receipts[i] = result.receipts[k].clone();
+            }
+            *lower_bound += result.lower_bound;
+            if result.status == MilpStatus::Feasible {
+                if component.status == Status::Optimal {
+                    component.status = Status::Feasible;
+                }
+                notes.push(format!(
+                    "{}: the solver stopped {} before proving optimality; the plan is feasible, with its lower bound in the gap",
+                    names,
+                    if result.hit_time_limit { "at the time limit" } else { "at the gap asked for" }
+                ));
+            }
+        }
+        MilpStatus::Infeasible => {
+            component.status = Status::Infeasible;
+            for &i in &group.items {
+                plan.receipts[i] = rules::plan(&scenario.items[i], Sizing::Rule(Rule::LotForLot));
+            }
+            notes.push(if group.resources.is_empty() {
+                format!("{names}: no plan meets the lot constraints and stock floors")
+            } else {
+                capacity::explain_capacity(scenario, group)
+            });
+        }
+        MilpStatus::NoPlan => {
+            component.status = Status::Unknown;
+            for &i in &group.items {
+                plan.receipts[i] = rules::plan(&scenario.items[i], Sizing::Rule(Rule::LotForLot));
+            }
+            notes.push(format!(
+                "{names}: the time limit ran out before the solver found a plan; the plan shown is lot-for-lot and may overload capacity"
+            ));
+        }
+    }
+}
+
 fn meets_lot_constraints(item: &crate::model::Item, receipts: &[f64]) -> bool {
     let tolerance = crate::eval::quantity_tolerance(item);
     receipts
         .iter()
         .filter(|&&q| q > 0.0)
         .all(|&q| (rules::constrain(item, q) - q).abs() <= tolerance)
-}
-
-/// The cheapest plan for item `i` that meets its lot constraints, among the
-/// optimum's lots made to fit and the rules' plans.
-fn best_constrained(scenario: &Scenario, i: usize, optimum: &[f64]) -> Vec<f64> {
-    let item = &scenario.items[i];
-    let mut candidates = vec![rules::plan(item, Sizing::Follow(optimum))];
-    candidates.extend(
-        Rule::ALL
-            .iter()
-            .map(|&rule| rules::plan(item, Sizing::Rule(rule))),
-    );
-    let single = Scenario {
-        items: vec![item.clone()],
-        resources: Vec::new(),
-        routings: Vec::new(),
-        ..scenario.clone()
-    };
-    candidates
-        .into_iter()
-        .map(|receipts| {
-            let evaluation = evaluate(
-                &single,
-                &Plan {
-                    receipts: vec![receipts.clone()],
-                },
-            );
-            (evaluation.feasible, evaluation.total_cost(), receipts)
-        })
-        .min_by(|a, b| {
-            (!a.0, a.1)
-                .partial_cmp(&(!b.0, b.1))
-                .unwrap_or(std::cmp::Ordering::Equal)
-        })
-        .map(|(_, _, receipts)| receipts)
-        .unwrap_or_default()
 }
 
 /// Why an item has no feasible plan: need before an order can arrive.

@@ -59,6 +59,53 @@ struct PlanArgs {
     /// Show the bucket records of this item (repeatable).
     #[arg(long = "item", value_name = "ID")]
     items: Vec<String>,
+    #[command(flatten)]
+    limits: Limits,
+}
+
+/// Limits of the MILP for items that share capacity.
+#[derive(Args)]
+struct Limits {
+    /// Seconds the MILP may run in all (default 60). On time out the best
+    /// plan is returned with its lower bound and gap, marked not proven.
+    #[arg(long, value_name = "S")]
+    time_limit: Option<f64>,
+    /// Stop the MILP once the relative gap is at most G (e.g. 0.01); the
+    /// plan is then reported as feasible with its gap, not as optimal.
+    #[arg(long, value_name = "G")]
+    gap: Option<f64>,
+    /// Threads HiGHS may use (default: its own choice).
+    #[arg(long, value_name = "N")]
+    threads: Option<u32>,
+}
+
+impl Limits {
+    fn milp(&self) -> Result<lotwright::capacity::milp::MilpOptions> {
+        let mut options = lotwright::capacity::milp::MilpOptions::default();
+        if let Some(seconds) = self.time_limit {
+            if !(seconds.is_finite() && seconds > 0.0) {
+                return Err(Error::usage(format!(
+                    "--time-limit must be a positive number of seconds, got {seconds}"
+                )));
+            }
+            options.time_limit = seconds;
+        }
+        if let Some(gap) = self.gap {
+            if !(gap.is_finite() && (0.0..1.0).contains(&gap)) {
+                return Err(Error::usage(format!(
+                    "--gap must be a fraction from 0 up to 1 (0.01 = 1 %), got {gap}"
+                )));
+            }
+            options.gap = Some(gap);
+        }
+        if let Some(threads) = self.threads {
+            if threads == 0 {
+                return Err(Error::usage("--threads must be at least 1"));
+            }
+            options.threads = Some(threads);
+        }
+        Ok(options)
+    }
 }
 
 #[derive(Args)]
@@ -74,6 +121,8 @@ struct CheckArgs {
     /// Exit with code 1 when the proposal is not feasible.
     #[arg(long)]
     strict: bool,
+    #[command(flatten)]
+    limits: Limits,
 }
 
 #[derive(Args)]
@@ -156,6 +205,7 @@ fn json_text(value: &serde_json::Value) -> Result<String> {
 }
 
 fn plan(args: PlanArgs) -> Result<i32> {
+    let milp = args.limits.milp()?;
     let scenario = lotwright::input::read_scenario(&args.dir)?;
     for id in &args.items {
         if scenario.item_index(id).is_none() {
@@ -171,6 +221,7 @@ fn plan(args: PlanArgs) -> Result<i32> {
     };
     let options = solve::Options {
         method: args.method.clone(),
+        milp,
     };
     let outcome = solve::plan_scenario(&scenario, &options)?;
     if let Some(target) = target {
@@ -199,9 +250,10 @@ fn plan(args: PlanArgs) -> Result<i32> {
 }
 
 fn check(args: CheckArgs) -> Result<i32> {
+    let milp = args.limits.milp()?;
     let scenario = lotwright::input::read_scenario(&args.dir)?;
     let proposal = lotwright::input::read_orders(&args.orders, &scenario)?;
-    let report = lotwright::check::check(&scenario, &proposal);
+    let report = lotwright::check::check(&scenario, &proposal, &milp);
     if args.json {
         emit(&json_text(&report::json::check(&scenario, &report))?)?;
     } else {

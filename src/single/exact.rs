@@ -36,12 +36,14 @@ pub const BACKLOG_PERIOD_LIMIT: usize = 15_000;
 /// The problem in shifted form: net requirement `net[t]` and stock offset
 /// `offset[t]`, so that on hand = shifted stock + offset, and shifted stock
 /// is cumulative orders minus cumulative net requirement.
-struct Shifted {
-    net: Vec<f64>,
-    offset: Vec<f64>,
+pub(crate) struct Shifted {
+    pub net: Vec<f64>,
+    pub offset: Vec<f64>,
 }
 
-fn shift(item: &Item) -> Shifted {
+/// The item's requirements in shifted form (see `Shifted`). Without backlog
+/// the net requirements are never negative.
+pub(crate) fn shift(item: &Item) -> Shifted {
     let periods = item.periods();
     if item.allows_backlog() {
         // Stock may go negative; only the end is a floor.

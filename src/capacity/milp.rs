@@ -1,0 +1,554 @@
+//! The mixed-integer program for items that share resources, solved by HiGHS
+//! through good_lp.
+//!
+//! Items without backlog use the facility-location reformulation (Krarup and
+//! Bilde 1977; see Pochet and Wolsey, "Production Planning by Mixed Integer
+//! Programming", Springer 2006, ch. 7): `z[j][t]` is the share of bucket t's
+//! net requirement received in bucket j, so `z[j][t] <= y[j]` is as tight as
+//! the convex hull of the single-item uncapacitated problem, which the
+//! textbook big-M model is far from. A surplus variable carries what lot
+//! constraints force beyond the need. Items that allow backlog use the
+//! stock-flow model with split stock and backlog, with every big-M tightened
+//! by the remaining need, the maximum lot and the capacity net of setup time.
+//!
+//! Capacity, setup time and overtime fall in the release bucket (receipt
+//! minus lead time), as in `eval`.
+
+use std::time::Instant;
+
+use good_lp::{constraint, variable, Expression, ProblemVariables, SolverModel, Variable};
+use highs::HighsModelStatus;
+
+use crate::eval::quantity_tolerance;
+use crate::model::{Item, Scenario};
+use crate::single::exact::shift;
+
+/// Limits for the solve.
+#[derive(Debug, Clone)]
+pub struct MilpOptions {
+    pub time_limit: f64,
+    /// Relative gap at which HiGHS may stop; `None` proves optimality to 1e-6.
+    pub gap: Option<f64>,
+    pub threads: Option<u32>,
+    /// Use the plain big-M model for every item (for the benchmark's
+    /// comparison of formulations).
+    pub plain: bool,
+    /// Solve the LP relaxation only (for the benchmark's bound comparison).
+    pub relax: bool,
+}
+
+impl Default for MilpOptions {
+    fn default() -> Self {
+        MilpOptions {
+            time_limit: DEFAULT_TIME_LIMIT,
+            gap: None,
+            threads: None,
+            plain: false,
+            relax: false,
+        }
+    }
+}
+
+/// The time limit of a solve unless the planner sets one, in seconds.
+pub const DEFAULT_TIME_LIMIT: f64 = 60.0;
+/// The relative gap under which a plan counts as proven optimal.
+pub const OPTIMALITY_GAP: f64 = 1e-6;
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum MilpStatus {
+    Optimal,
+    /// Stopped by the time limit or the planner's gap, with a plan.
+    Feasible,
+    Infeasible,
+    /// Stopped by the time limit before any plan was found.
+    NoPlan,
+}
+
+#[derive(Debug, Clone)]
+pub struct MilpResult {
+    pub status: MilpStatus,
+    /// Receipts by item of the component (in the order given), by bucket.
+    pub receipts: Vec<Vec<f64>>,
+    /// The solver's objective (constant included).
+    pub objective: f64,
+    /// HiGHS's proven lower bound (constant included).
+    pub lower_bound: f64,
+    pub seconds: f64,
+    pub hit_time_limit: bool,
+}
+
+/// Columns of one item in the model.
+struct ItemColumns {
+    /// Setup binaries by receipt bucket (`None` before the lead time).
+    setup: Vec<Option<Variable>>,
+    /// Receipt quantity by bucket, as an expression.
+    quantity: Vec<Expression>,
+}
+
+/// Solves the component made of `items` (indices into the scenario) and all
+/// resources their routings touch.
+pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> MilpResult {
+    let started = Instant::now();
+    let periods = scenario.periods();
+    let mut vars = ProblemVariables::new();
+    let mut objective = Expression::from(0.0);
+    let mut constant = 0.0;
+    let mut constraints = Vec::new();
+    let mut columns = Vec::with_capacity(items.len());
+    let binary = |vars: &mut ProblemVariables| {
+        if options.relax {
+            vars.add(variable().min(0.0).max(1.0))
+        } else {
+            vars.add(variable().binary())
+        }
+    };
+    for &i in items {
+        let item = &scenario.items[i];
+        let cap = capacity_bounds(scenario, i);
+        let mut setup = vec![None; periods];
+        for (j, slot) in setup.iter_mut().enumerate().skip(item.lead_time) {
+            let y = binary(&mut vars);
+            objective += item.setup_cost[j - item.lead_time] * y;
+            if cap[j] <= 0.0 {
+                constraints.push(constraint::eq(y, 0.0));
+            }
+            *slot = Some(y);
+        }
+        let quantity = if item.allows_backlog() || options.plain {
+            flow_model(
+                item,
+                &setup,
+                &cap,
+                &mut vars,
+                &mut objective,
+                &mut constant,
+                &mut constraints,
+                options.plain,
+            )
+        } else {
+            location_model(
+                item,
+                &setup,
+                &cap,
+                &mut vars,
+                &mut objective,
+                &mut constant,
+                &mut constraints,
+            )
+        };
+        lot_constraints(
+            item,
+            &setup,
+            &quantity,
+            &mut vars,
+            &mut constraints,
+            options.relax,
+        );
+        columns.push(ItemColumns { setup, quantity });
+    }
+    // Capacity by resource and release bucket, with overtime.
+    for (r, resource) in scenario.resources.iter().enumerate() {
+        let routed: Vec<(usize, &crate::model::Routing)> = items
+            .iter()
+            .enumerate()
+            .filter_map(|(k, &i)| {
+                scenario
+                    .routings
+                    .iter()
+                    .find(|x| x.item == i && x.resource == r)
+                    .map(|x| (k, x))
+            })
+            .collect();
+        if routed.is_empty() {
+            continue;
+        }
+        for t in 0..periods {
+            let mut load = Expression::from(0.0);
+            let mut any = false;
+            for &(k, routing) in &routed {
+                let item = &scenario.items[items[k]];
+                let j = t + item.lead_time;
+                if j >= periods {
+                    continue;
+                }
+                if let Some(y) = columns[k].setup[j] {
+                    load += routing.setup_time * y;
+                    load.add_mul(routing.per_unit, columns[k].quantity[j].clone());
+                    any = true;
+                }
+            }
+            if !any {
+                continue;
+            }
+            let overtime_capacity = resource.overtime_capacity[t];
+            if overtime_capacity > 0.0 {
+                let overtime = vars.add(variable().min(0.0).max(overtime_capacity));
+                objective += resource.overtime_cost * overtime;
+                load -= overtime;
+            }
+            constraints.push(load.leq(resource.capacity[t]));
+        }
+    }
+    // HiGHS numbers its columns in the order the variables were made.
+    let index: std::collections::HashMap<Variable, usize> = vars
+        .iter_variables_with_def()
+        .enumerate()
+        .map(|(k, (v, _))| (v, k))
+        .collect();
+    let mut problem = vars
+        .minimise(objective)
+        .using(good_lp::solvers::highs::highs);
+    for c in constraints {
+        problem.add_constraint(c);
+    }
+    let Ok(mut model) = problem.try_into_inner() else {
+        return failed(periods, items.len(), started);
+    };
+    model.make_quiet();
+    model.set_option("time_limit", options.time_limit.max(0.01));
+    model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.5));
+    model.set_option("mip_abs_gap", 1e-9);
+    model.set_option("random_seed", 1);
+    if let Some(threads) = options.threads {
+        model.set_option("threads", threads as i32);
+    }
+    let Ok(solved) = model.try_solve() else {
+        return failed(periods, items.len(), started);
+    };
+    let status = solved.status();
+    let seconds = started.elapsed().as_secs_f64();
+    let has_plan = matches!(
+        solved.primal_solution_status(),
+        highs::HighsSolutionStatus::Feasible
+    );
+    let hit_time_limit = matches!(status, HighsModelStatus::ReachedTimeLimit);
+    if matches!(
+        status,
+        HighsModelStatus::Infeasible | HighsModelStatus::UnboundedOrInfeasible
+    ) {
+        return MilpResult {
+            status: MilpStatus::Infeasible,
+            receipts: vec![vec![0.0; periods]; items.len()],
+            objective: f64::INFINITY,
+            lower_bound: f64::INFINITY,
+            seconds,
+            hit_time_limit: false,
+        };
+    }
+    if !has_plan {
+        return MilpResult {
+            status: MilpStatus::NoPlan,
+            receipts: vec![vec![0.0; periods]; items.len()],
+            objective: f64::INFINITY,
+            lower_bound: solved
+                .double_info_value(c"mip_dual_bound")
+                .unwrap_or(f64::NEG_INFINITY)
+                + constant,
+            seconds,
+            hit_time_limit,
+        };
+    }
+    let solution = solved.get_solution();
+    let values = solution.columns();
+    let objective_value = solved.objective_value() + constant;
+    let dual_bound = if options.relax {
+        objective_value
+    } else {
+        solved
+            .double_info_value(c"mip_dual_bound")
+            .map(|b| b + constant)
+            .unwrap_or(f64::NEG_INFINITY)
+    };
+    let receipts = columns
+        .iter()
+        .zip(items)
+        .map(|(c, &i)| {
+            let item = &scenario.items[i];
+            c.quantity
+                .iter()
+                .map(|q| {
+                    snap(
+                        item,
+                        q.eval_with(&Values {
+                            columns: values,
+                            index: &index,
+                        }),
+                    )
+                })
+                .collect()
+        })
+        .collect();
+    let gap = if objective_value.abs() > 1e-9 {
+        (objective_value - dual_bound) / objective_value.abs()
+    } else {
+        objective_value - dual_bound
+    };
+    let proven = matches!(status, HighsModelStatus::Optimal) && gap <= OPTIMALITY_GAP;
+    MilpResult {
+        status: if proven {
+            MilpStatus::Optimal
+        } else {
+            MilpStatus::Feasible
+        },
+        receipts,
+        objective: objective_value,
+        lower_bound: dual_bound.min(objective_value),
+        seconds,
+        hit_time_limit,
+    }
+}
+
+/// Column values looked up by variable, to evaluate expressions.
+struct Values<'a> {
+    columns: &'a [f64],
+    index: &'a std::collections::HashMap<Variable, usize>,
+}
+
+impl good_lp::Solution for Values<'_> {
+    fn status(&self) -> good_lp::SolutionStatus {
+        good_lp::SolutionStatus::Optimal
+    }
+
+    fn value(&self, variable: Variable) -> f64 {
+        self.index
+            .get(&variable)
+            .and_then(|&k| self.columns.get(k))
+            .copied()
+            .unwrap_or(0.0)
+    }
+}
+
+fn failed(periods: usize, items: usize, started: Instant) -> MilpResult {
+    MilpResult {
+        status: MilpStatus::NoPlan,
+        receipts: vec![vec![0.0; periods]; items],
+        objective: f64::INFINITY,
+        lower_bound: f64::NEG_INFINITY,
+        seconds: started.elapsed().as_secs_f64(),
+        hit_time_limit: false,
+    }
+}
+
+/// Rounds away solver noise: near-whole quantities become whole, lots
+/// become exact multiples, tiny ones vanish.
+fn snap(item: &Item, quantity: f64) -> f64 {
+    let tolerance = quantity_tolerance(item) * 0.1;
+    if quantity <= tolerance {
+        return 0.0;
+    }
+    if let Some(multiple) = item.lot_multiple {
+        return (quantity / multiple).round() * multiple;
+    }
+    let whole = quantity.round();
+    if (quantity - whole).abs() <= tolerance {
+        whole
+    } else {
+        quantity
+    }
+}
+
+/// The most an item can receive in each bucket given the capacity of its
+/// resources net of setup time (infinite without routing).
+fn capacity_bounds(scenario: &Scenario, i: usize) -> Vec<f64> {
+    let item = &scenario.items[i];
+    let periods = scenario.periods();
+    (0..periods)
+        .map(|j| {
+            if j < item.lead_time {
+                return 0.0;
+            }
+            let t = j - item.lead_time;
+            let mut bound = item.max_lot.unwrap_or(f64::INFINITY);
+            for routing in scenario.routings_of(i) {
+                let resource = &scenario.resources[routing.resource];
+                let room =
+                    resource.capacity[t] + resource.overtime_capacity[t] - routing.setup_time;
+                if room < 0.0 {
+                    return 0.0;
+                }
+                if routing.per_unit > 0.0 {
+                    bound = bound.min(room / routing.per_unit);
+                }
+            }
+            bound
+        })
+        .collect()
+}
+
+/// Facility-location model of an item without backlog; returns the receipt
+/// quantity expressions.
+fn location_model(
+    item: &Item,
+    setup: &[Option<Variable>],
+    cap: &[f64],
+    vars: &mut ProblemVariables,
+    objective: &mut Expression,
+    constant: &mut f64,
+    constraints: &mut Vec<good_lp::Constraint>,
+) -> Vec<Expression> {
+    let periods = item.periods();
+    let tolerance = quantity_tolerance(item);
+    let shifted = shift(item);
+    for t in 0..periods {
+        *constant += item.holding_cost[t] * shifted.offset[t];
+    }
+    let mut quantity: Vec<Expression> = vec![Expression::from(0.0); periods];
+    for t in 0..periods {
+        let need = shifted.net[t];
+        if need <= tolerance {
+            continue;
+        }
+        let mut cover = Expression::from(0.0);
+        let mut carrying = 0.0; // holding from j to t, per unit
+        for j in (0..=t).rev() {
+            if let Some(y) = setup[j] {
+                let z = vars.add(variable().min(0.0).max(1.0));
+                let unit = item.unit_cost[j - item.lead_time];
+                *objective += need * (unit + carrying) * z;
+                constraints.push(constraint::leq(z, y));
+                if cap[j] < need {
+                    // A bucket can never receive more than its capacity allows.
+                    constraints.push((need * z).leq(cap[j] * y));
+                }
+                cover += z;
+                quantity[j] += need * z;
+            }
+            if j > 0 {
+                carrying += item.holding_cost[j - 1];
+            }
+        }
+        constraints.push(cover.eq(1.0));
+    }
+    // Surplus that min_lot or lot_multiple forces beyond the need stays in
+    // stock to the end; an optimal plan needs at most min_lot + multiple.
+    if item.min_lot > 0.0 || item.lot_multiple.is_some() {
+        let most = item.min_lot + item.lot_multiple.unwrap_or(0.0);
+        for j in 0..periods {
+            let Some(y) = setup[j] else { continue };
+            let surplus = vars.add(variable().min(0.0));
+            let carrying: f64 = item.holding_cost[j..].iter().sum();
+            *objective += (item.unit_cost[j - item.lead_time] + carrying) * surplus;
+            constraints.push((1.0 * surplus).leq(most * y));
+            quantity[j] += surplus;
+        }
+    }
+    for j in 0..periods {
+        if let Some(y) = setup[j] {
+            if cap[j].is_finite() {
+                constraints.push(quantity[j].clone().leq(cap[j] * y));
+            }
+        }
+    }
+    quantity
+}
+
+/// Stock-flow model (used for backlog, and as the plain model when asked).
+#[allow(clippy::too_many_arguments)]
+fn flow_model(
+    item: &Item,
+    setup: &[Option<Variable>],
+    cap: &[f64],
+    vars: &mut ProblemVariables,
+    objective: &mut Expression,
+    constant: &mut f64,
+    constraints: &mut Vec<good_lp::Constraint>,
+    plain: bool,
+) -> Vec<Expression> {
+    let periods = item.periods();
+    let _ = constant;
+    let total_need = (item.demand.iter().sum::<f64>() + item.safety_stock.max(item.ending_stock)
+        - item.initial_stock
+        - item.receipts.iter().sum::<f64>())
+    .max(0.0);
+    // Need from bucket j to the end bounds what bucket j should receive.
+    let mut need_from = vec![0.0; periods + 1];
+    for t in (0..periods).rev() {
+        need_from[t] = need_from[t + 1] + item.demand[t];
+    }
+    let mut quantity = Vec::with_capacity(periods);
+    let mut previous: Option<(Variable, Option<Variable>)> = None;
+    for t in 0..periods {
+        let q = vars.add(variable().min(0.0));
+        if let Some(y) = setup[t] {
+            *objective += item.unit_cost[t - item.lead_time] * q;
+            let extra = item.min_lot + item.lot_multiple.unwrap_or(0.0);
+            let bound = if plain {
+                (total_need + extra).max(1.0)
+            } else {
+                let backlog_reach = if item.allows_backlog() {
+                    total_need
+                } else {
+                    0.0
+                };
+                (need_from[t] + item.ending_stock.max(item.safety_stock) + backlog_reach + extra)
+                    .min(total_need + extra)
+                    .min(cap[t])
+                    .max(0.0)
+            };
+            constraints.push((1.0 * q).leq(bound * y));
+        } else {
+            constraints.push(constraint::eq(q, 0.0));
+        }
+        let stock = vars.add(variable().min(0.0));
+        *objective += item.holding_cost[t] * stock;
+        let last = t + 1 == periods;
+        let backlog = if item.allows_backlog() && !last {
+            let b = vars.add(variable().min(0.0));
+            *objective += item.backlog_cost.unwrap_or(0.0) * b;
+            Some(b)
+        } else {
+            None
+        };
+        // stock - backlog = previous stock - previous backlog + receipts + q - demand
+        let mut balance = stock - q;
+        if let Some(b) = backlog {
+            balance -= b;
+        }
+        let mut rhs = item.receipts[t] - item.demand[t];
+        match previous {
+            Some((s, pb)) => {
+                balance -= s;
+                if let Some(pb) = pb {
+                    balance += pb;
+                }
+            }
+            None => rhs += item.initial_stock,
+        }
+        constraints.push(balance.eq(rhs));
+        let floor = item.stock_floor(t);
+        if floor > 0.0 {
+            constraints.push((1.0 * stock).geq(floor));
+        }
+        quantity.push(Expression::from(q));
+        previous = Some((stock, backlog));
+    }
+    quantity
+}
+
+/// min_lot, lot_multiple and max_lot on the receipt quantities.
+fn lot_constraints(
+    item: &Item,
+    setup: &[Option<Variable>],
+    quantity: &[Expression],
+    vars: &mut ProblemVariables,
+    constraints: &mut Vec<good_lp::Constraint>,
+    relax: bool,
+) {
+    for (j, q) in quantity.iter().enumerate() {
+        let Some(y) = setup[j] else { continue };
+        if item.min_lot > 0.0 {
+            constraints.push(q.clone().geq(item.min_lot * y));
+        }
+        if let Some(max) = item.max_lot {
+            constraints.push(q.clone().leq(max * y));
+        }
+        if let Some(multiple) = item.lot_multiple {
+            let count = if relax {
+                vars.add(variable().min(0.0))
+            } else {
+                vars.add(variable().integer().min(0.0))
+            };
+            constraints.push(q.clone().eq(multiple * count));
+        }
+    }
+}

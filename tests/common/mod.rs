@@ -1,0 +1,111 @@
+//! Shared fixtures for the integration tests: items and scenarios built in
+//! code, and scenario folders written into a fresh temporary directory.
+//!
+//! Each test crate uses only part of this module, so unused helpers are
+//! allowed here.
+
+#![allow(dead_code)]
+
+use std::path::Path;
+
+use chrono::NaiveDate;
+use lotwright::model::{BucketKind, Calendar, Item, Plan, Scenario};
+use tempfile::TempDir;
+
+/// A plain item: constant setup and holding cost, no unit cost, no stock,
+/// no lead time, no lot constraints, no backlog.
+pub fn item(demand: &[f64], setup_cost: f64, holding_cost: f64) -> Item {
+    let periods = demand.len();
+    Item {
+        id: "A".into(),
+        setup_cost: vec![setup_cost; periods],
+        nominal_setup_cost: setup_cost,
+        nominal_holding_cost: holding_cost,
+        holding_cost: vec![holding_cost; periods],
+        unit_cost: vec![0.0; periods],
+        initial_stock: 0.0,
+        safety_stock: 0.0,
+        lead_time: 0,
+        min_lot: 0.0,
+        lot_multiple: None,
+        max_lot: None,
+        backlog_cost: None,
+        fixed_lot: None,
+        ending_stock: 0.0,
+        demand: demand.to_vec(),
+        receipts: vec![0.0; periods],
+    }
+}
+
+/// A weekly calendar of `periods` buckets from Monday 2027-01-04.
+pub fn calendar(periods: usize) -> Calendar {
+    Calendar {
+        start: NaiveDate::from_ymd_opt(2027, 1, 4).expect("a valid date"),
+        kind: BucketKind::Week,
+        periods,
+    }
+}
+
+/// A scenario of the given items (all of one horizon), with no resources.
+pub fn scenario(items: Vec<Item>) -> Scenario {
+    let periods = items.first().map_or(0, Item::periods);
+    assert!(
+        items.iter().all(|i| i.periods() == periods),
+        "every item of a scenario needs the same horizon"
+    );
+    Scenario {
+        name: "test".into(),
+        currency: None,
+        calendar: calendar(periods),
+        items,
+        resources: Vec::new(),
+        routings: Vec::new(),
+    }
+}
+
+/// A plan for a scenario of one item.
+pub fn single_plan(receipts: &[f64]) -> Plan {
+    Plan {
+        receipts: vec![receipts.to_vec()],
+    }
+}
+
+/// Writes the files into a fresh temporary folder and returns it (the folder
+/// is removed when the value is dropped).
+pub fn scenario_dir(files: &[(&str, &str)]) -> TempDir {
+    let dir = tempfile::tempdir().expect("a temporary folder");
+    write_files(dir.path(), files);
+    dir
+}
+
+/// Writes `(name, contents)` pairs into `dir`.
+pub fn write_files(dir: &Path, files: &[(&str, &str)]) {
+    for (name, contents) in files {
+        std::fs::write(dir.join(name), contents).expect("a fixture file written");
+    }
+}
+
+/// scenario.toml text for a weekly horizon from 2027-01-04.
+pub fn weekly_toml(periods: usize) -> String {
+    format!("name = \"fixture\"\nstart = \"2027-01-04\"\nbucket = \"week\"\nperiods = {periods}\n")
+}
+
+/// demand.csv text with one `period` row per bucket of positive demand.
+pub fn demand_csv(item: &str, demand: &[f64]) -> String {
+    let mut text = String::from("item,period,quantity\n");
+    for (t, q) in demand.iter().enumerate() {
+        if *q > 0.0 {
+            text.push_str(&format!("{item},{},{q}\n", t + 1));
+        }
+    }
+    text
+}
+
+/// Asserts that two costs agree to a relative 1e-9 (and absolute 1e-9 near 0).
+pub fn assert_cost_eq(got: f64, expected: f64, what: &str) {
+    let scale = 1.0f64.max(expected.abs());
+    assert!(
+        (got - expected).abs() <= 1e-9 * scale,
+        "{what}: got {got}, expected {expected}"
+    );
+}
