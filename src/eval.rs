@@ -339,25 +339,23 @@ fn evaluate_item(
             });
         }
         let last = t + 1 == periods;
-        let floor = item.stock_floor(t);
-        // Safety stock before the lead time has passed cannot be restored by
-        // any order, so that breach is reported without being binding.
-        let target = if t < lead {
-            item.safety_stock
-        } else {
-            item.stock_target(t)
-        };
         let short = stock < -tolerance && !item.allows_backlog();
-        if !short && stock < target - tolerance {
-            let ending = last
-                && (stock < -tolerance || (item.ending_stock > item.safety_stock && t >= lead));
-            let kind = if ending {
-                ViolationKind::EndingStock
-            } else {
-                ViolationKind::SafetyStock
-            };
-            let binding = stock < floor - tolerance;
-            violations.push(violation(t + 1, kind, stock, target, binding));
+        // The end: backlog must be cleared and the ending-stock target met
+        // (where an order can still arrive in time).
+        let reachable = t >= lead;
+        let end_floor = if reachable { item.ending_stock } else { 0.0 };
+        let end_breach = last
+            && !short
+            && stock < end_floor - tolerance
+            && (item.allows_backlog() || reachable);
+        if end_breach {
+            violations.push(violation(t + 1, ViolationKind::EndingStock, stock, end_floor, true));
+        } else if item.safety_stock > 0.0 && !short && stock < item.safety_stock - tolerance {
+            // Safety stock is a floor without backlog, a target with it;
+            // before the lead time has passed no order can restore it, so
+            // such a breach is reported without being binding.
+            let binding = !item.allows_backlog() && reachable;
+            violations.push(violation(t + 1, ViolationKind::SafetyStock, stock, item.safety_stock, binding));
         }
     }
     let total_demand: f64 = item.demand.iter().sum();

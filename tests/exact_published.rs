@@ -53,14 +53,26 @@ fn order_buckets(receipts: &[f64]) -> Vec<usize> {
 /// the dynamic program's own cost and finds it feasible.
 fn solve_and_evaluate(item: &Item) -> exact::ExactPlan {
     let plan = exact::solve(item).expect("the example has a feasible plan");
+    check_evaluation(item, &plan);
+    plan
+}
+
+/// The one evaluation must cost the DP's plan as the DP does, and find it
+/// feasible.
+fn check_evaluation(item: &Item, plan: &exact::ExactPlan) {
     let evaluation = evaluate(&scenario(vec![item.clone()]), &single_plan(&plan.receipts));
-    assert!(evaluation.feasible, "the DP plan must be feasible");
     assert_cost_eq(
         evaluation.total_cost(),
         plan.cost,
         "evaluation of the DP plan",
     );
-    plan
+    assert!(
+        evaluation.feasible,
+        "the DP plan {:?} must evaluate as feasible; violations {:?}, shortages {:?}",
+        plan.receipts,
+        evaluation.violations,
+        evaluation.shortages
+    );
 }
 
 // ---------------------------------------------------------------------------
@@ -237,13 +249,15 @@ fn hand_computed_backlog_defers_a_small_early_demand() {
     // The least is 130: backlog bucket 1's 10 units for two buckets.
     let mut item = item(&[10.0, 0.0, 50.0], 100.0, 1.0);
     item.backlog_cost = Some(1.5);
-    let plan = solve_and_evaluate(&item);
+    let plan = exact::solve(&item).expect("a plan with backlog");
     assert_cost_eq(plan.cost, 130.0, "hand-computed backlog optimum");
     assert_eq!(plan.receipts, vec![0.0, 0.0, 60.0]);
+    let with_backlog = item.clone();
     // Without backlog the same item must order in bucket 1: 200.
     item.backlog_cost = None;
-    let plan = solve_and_evaluate(&item);
-    assert_cost_eq(plan.cost, 200.0, "the same item without backlog");
+    let without = solve_and_evaluate(&item);
+    assert_cost_eq(without.cost, 200.0, "the same item without backlog");
+    check_evaluation(&with_backlog, &plan);
 }
 
 #[test]
@@ -260,9 +274,10 @@ fn hand_computed_backlog_makes_lead_time_need_feasible() {
     item.lead_time = 1;
     assert!(exact::solve(&item).is_none(), "no plan without backlog");
     item.backlog_cost = Some(3.0);
-    let plan = solve_and_evaluate(&item);
+    let plan = exact::solve(&item).expect("a plan with backlog");
     assert_cost_eq(plan.cost, 120.0, "hand-computed backlog optimum");
     assert_eq!(plan.receipts, vec![0.0, 40.0, 0.0]);
+    check_evaluation(&item, &plan);
 }
 
 #[test]
@@ -285,7 +300,8 @@ fn hand_computed_backlog_with_stock_and_a_receipt() {
     item.receipts[1] = 4.0;
     item.ending_stock = 1.0;
     item.backlog_cost = Some(2.0);
-    let plan = solve_and_evaluate(&item);
+    let plan = exact::solve(&item).expect("a plan with backlog");
     assert_cost_eq(plan.cost, 34.0, "hand-computed backlog optimum");
     assert_eq!(plan.receipts, vec![0.0, 0.0, 17.0, 0.0]);
+    check_evaluation(&item, &plan);
 }
