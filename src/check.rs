@@ -48,6 +48,7 @@ pub fn check(scenario: &Scenario, proposal: &Plan, options: &MilpOptions) -> Che
             if extra <= 1e-6 * (1.0 + theirs.costs.total().abs()) {
                 continue;
             }
+            let more = |a: f64, b: f64| a > b + 1e-6 * (1.0 + b.abs());
             let mut reasons = Vec::new();
             if mine.setups > theirs.setups {
                 reasons.push(format!(
@@ -55,19 +56,19 @@ pub fn check(scenario: &Scenario, proposal: &Plan, options: &MilpOptions) -> Che
                     mine.setups, theirs.setups
                 ));
             }
-            if mine.costs.holding > theirs.costs.holding + 1e-9 {
+            if more(mine.costs.holding, theirs.costs.holding) {
                 reasons.push(format!(
                     "stock built earlier or larger than needed (holding {:.2} against {:.2})",
                     mine.costs.holding, theirs.costs.holding
                 ));
             }
-            if mine.costs.backlog > theirs.costs.backlog + 1e-9 {
+            if more(mine.costs.backlog, theirs.costs.backlog) {
                 reasons.push(format!(
                     "backlog cost {:.2} against {:.2}",
                     mine.costs.backlog, theirs.costs.backlog
                 ));
             }
-            if mine.costs.unit > theirs.costs.unit + 1e-9 {
+            if more(mine.costs.unit, theirs.costs.unit) {
                 reasons.push(format!(
                     "unit cost {:.2} against {:.2} (more units, or bought at dearer prices)",
                     mine.costs.unit, theirs.costs.unit

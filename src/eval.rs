@@ -344,18 +344,28 @@ fn evaluate_item(
         // (where an order can still arrive in time).
         let reachable = t >= lead;
         let end_floor = if reachable { item.ending_stock } else { 0.0 };
-        let end_breach = last
-            && !short
-            && stock < end_floor - tolerance
-            && (item.allows_backlog() || reachable);
+        let end_breach =
+            last && !short && stock < end_floor - tolerance && (item.allows_backlog() || reachable);
         if end_breach {
-            violations.push(violation(t + 1, ViolationKind::EndingStock, stock, end_floor, true));
+            violations.push(violation(
+                t + 1,
+                ViolationKind::EndingStock,
+                stock,
+                end_floor,
+                true,
+            ));
         } else if item.safety_stock > 0.0 && !short && stock < item.safety_stock - tolerance {
             // Safety stock is a floor without backlog, a target with it;
             // before the lead time has passed no order can restore it, so
             // such a breach is reported without being binding.
             let binding = !item.allows_backlog() && reachable;
-            violations.push(violation(t + 1, ViolationKind::SafetyStock, stock, item.safety_stock, binding));
+            violations.push(violation(
+                t + 1,
+                ViolationKind::SafetyStock,
+                stock,
+                item.safety_stock,
+                binding,
+            ));
         }
     }
     let total_demand: f64 = item.demand.iter().sum();

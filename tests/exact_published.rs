@@ -69,9 +69,7 @@ fn check_evaluation(item: &Item, plan: &exact::ExactPlan) {
     assert!(
         evaluation.feasible,
         "the DP plan {:?} must evaluate as feasible; violations {:?}, shortages {:?}",
-        plan.receipts,
-        evaluation.violations,
-        evaluation.shortages
+        plan.receipts, evaluation.violations, evaluation.shortages
     );
 }
 

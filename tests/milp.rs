@@ -58,7 +58,14 @@ fn resource(capacity: f64, periods: usize) -> Resource {
 
 fn solve_all(s: &Scenario) -> milp::MilpResult {
     let items: Vec<usize> = (0..s.items.len()).collect();
-    milp::solve(s, &items, &MilpOptions { threads: Some(1), ..MilpOptions::default() })
+    milp::solve(
+        s,
+        &items,
+        &MilpOptions {
+            threads: Some(1),
+            ..MilpOptions::default()
+        },
+    )
 }
 
 fn close(a: f64, b: f64) -> bool {
@@ -67,8 +74,17 @@ fn close(a: f64, b: f64) -> bool {
 
 /// The MILP's objective is the evaluation of its plan.
 fn assert_objective_is_evaluation(s: &Scenario, result: &milp::MilpResult) {
-    let evaluation = evaluate(s, &Plan { receipts: result.receipts.clone() });
-    assert!(evaluation.feasible, "MILP plan not feasible: {:?}", evaluation.violations);
+    let evaluation = evaluate(
+        s,
+        &Plan {
+            receipts: result.receipts.clone(),
+        },
+    );
+    assert!(
+        evaluation.feasible,
+        "MILP plan not feasible: {:?}",
+        evaluation.violations
+    );
     assert!(
         close(evaluation.total_cost(), result.objective),
         "objective {} but evaluation {}",
@@ -89,18 +105,25 @@ fn single_item() -> impl Strategy<Value = Item> {
             0usize..2,
             prop::option::of(1u32..6),
         )
-            .prop_map(|(demand, setup, holding, unit, initial, safety, lead, backlog)| {
-                let periods = demand.len();
-                let mut it = item("A", &demand.iter().map(|&d| d as f64).collect::<Vec<_>>(), 0.0, 0.0);
-                it.setup_cost = setup.iter().map(|&s| s as f64).collect();
-                it.holding_cost = holding.iter().map(|&h| h as f64 * 0.5).collect();
-                it.unit_cost = unit.iter().map(|&u| u as f64).collect();
-                it.initial_stock = initial as f64;
-                it.safety_stock = safety as f64;
-                it.lead_time = lead.min(periods - 1);
-                it.backlog_cost = backlog.map(|b| b as f64);
-                it
-            })
+            .prop_map(
+                |(demand, setup, holding, unit, initial, safety, lead, backlog)| {
+                    let periods = demand.len();
+                    let mut it = item(
+                        "A",
+                        &demand.iter().map(|&d| d as f64).collect::<Vec<_>>(),
+                        0.0,
+                        0.0,
+                    );
+                    it.setup_cost = setup.iter().map(|&s| s as f64).collect();
+                    it.holding_cost = holding.iter().map(|&h| h as f64 * 0.5).collect();
+                    it.unit_cost = unit.iter().map(|&u| u as f64).collect();
+                    it.initial_stock = initial as f64;
+                    it.safety_stock = safety as f64;
+                    it.lead_time = lead.min(periods - 1);
+                    it.backlog_cost = backlog.map(|b| b as f64);
+                    it
+                },
+            )
     })
 }
 
@@ -130,7 +153,11 @@ proptest! {
 fn exhaustive(s: &Scenario) -> Option<f64> {
     let periods = s.periods();
     let n = s.items.len();
-    let totals: Vec<usize> = s.items.iter().map(|i| i.demand.iter().sum::<f64>() as usize).collect();
+    let totals: Vec<usize> = s
+        .items
+        .iter()
+        .map(|i| i.demand.iter().sum::<f64>() as usize)
+        .collect();
     let mut best: Option<f64> = None;
     let mut quantities = vec![vec![0usize; periods]; n];
     fn next(q: &mut [Vec<usize>], totals: &[usize]) -> bool {
@@ -147,7 +174,10 @@ fn exhaustive(s: &Scenario) -> Option<f64> {
     }
     loop {
         let plan = Plan {
-            receipts: quantities.iter().map(|r| r.iter().map(|&q| q as f64).collect()).collect(),
+            receipts: quantities
+                .iter()
+                .map(|r| r.iter().map(|&q| q as f64).collect())
+                .collect(),
         };
         // An independent cost and feasibility check, not `evaluate`.
         let mut cost = 0.0;
@@ -233,7 +263,10 @@ fn lot_constraints_are_met_by_the_milp() {
     let result = solve_all(&s);
     assert_eq!(result.status, MilpStatus::Optimal);
     for &q in result.receipts[0].iter().filter(|&&q| q > 0.0) {
-        assert!(q >= 50.0 && q <= 100.0 && (q / 25.0).fract() == 0.0, "lot {q}");
+        assert!(
+            q >= 50.0 && q <= 100.0 && (q / 25.0).fract() == 0.0,
+            "lot {q}"
+        );
     }
     assert_objective_is_evaluation(&s, &result);
 }
@@ -245,7 +278,16 @@ fn overtime_is_used_and_costed() {
     let mut res = resource(10.0, 2);
     res.overtime_capacity = vec![10.0; 2];
     res.overtime_cost = 2.0;
-    let s = scenario(vec![it], vec![res], vec![Routing { item: 0, resource: 0, per_unit: 1.0, setup_time: 0.0 }]);
+    let s = scenario(
+        vec![it],
+        vec![res],
+        vec![Routing {
+            item: 0,
+            resource: 0,
+            per_unit: 1.0,
+            setup_time: 0.0,
+        }],
+    );
     let result = solve_all(&s);
     assert_eq!(result.status, MilpStatus::Optimal);
     // One setup in bucket 2 with 5 units of overtime (10 + 1000) beats two setups.

@@ -111,12 +111,7 @@ fn fixed_lot_orders_the_smallest_multiple_that_covers_the_need() {
     let mut item = item(&[40.0, 25.0, 0.0, 70.0, 15.0], 100.0, 1.0);
     item.initial_stock = 20.0;
     item.fixed_lot = Some(50.0);
-    let evaluation = check_rule(
-        &item,
-        Rule::FixedLot,
-        &[50.0, 0.0, 0.0, 100.0, 0.0],
-        295.0,
-    );
+    let evaluation = check_rule(&item, Rule::FixedLot, &[50.0, 0.0, 0.0, 100.0, 0.0], 295.0);
     assert_eq!(evaluation.items[0].ending_stock, 20.0);
 }
 
@@ -211,7 +206,12 @@ fn silver_meal_on_nahmias_example() {
     //   from 5: last bucket: lot 20
     // Cost 3 x 80 + 60 + 10 = 310.
     let item = item(&NAHMIAS, 80.0, 2.0);
-    check_rule(&item, Rule::SilverMeal, &[48.0, 0.0, 47.0, 0.0, 20.0], 310.0);
+    check_rule(
+        &item,
+        Rule::SilverMeal,
+        &[48.0, 0.0, 47.0, 0.0, 20.0],
+        310.0,
+    );
 }
 
 #[test]

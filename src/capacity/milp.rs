@@ -206,7 +206,7 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     };
     model.make_quiet();
     model.set_option("time_limit", options.time_limit.max(0.01));
-    model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.5));
+    model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.99));
     model.set_option("mip_abs_gap", 1e-9);
     model.set_option("random_seed", 1);
     if let Some(threads) = options.threads {

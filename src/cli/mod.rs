@@ -242,6 +242,11 @@ fn plan(args: PlanArgs) -> Result<i32> {
         };
         emit(&report::table::plan(&scenario, &outcome, &detail))?;
     }
+    // Only the exact method can tell that the scenario has no feasible
+    // plan; a rule's infeasible plan says nothing about the scenario.
+    if outcome.chosen.method != "optimal" {
+        return Ok(0);
+    }
     Ok(match outcome.chosen.status {
         Status::Optimal | Status::Feasible => 0,
         Status::Infeasible => 1,

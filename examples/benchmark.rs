@@ -1,0 +1,665 @@
+//! Benchmark runner: the capacitated lot-sizing instances of Trigeiro, Thomas
+//! and McClain (Management Science 35(3), 1989) solved with the shared-capacity
+//! MILP, one table row per instance, then totals and peak memory.
+//!
+//! ```text
+//! cargo run --release --example benchmark -- [--time-limit S]
+//!     [--formulation strong|plain|both] [--limit N] [--filter TEXT]
+//!     [--replicate LETTER] [--threads N] DIR_OR_FILES...
+//! ```
+//!
+//! Each instance becomes a `Scenario` built in code: week buckets, one
+//! resource with the instance's capacity in every bucket and no overtime,
+//! routings with the per-unit use and setup time, and unit cost 0. The
+//! instance's unit cost is the same for every item and bucket, and with no
+//! initial or ending stock every plan makes exactly the total demand, so it
+//! adds the same constant to every plan and cannot change the optimum.
+//!
+//! Every plan the MILP returns goes through `eval::evaluate`; the check
+//! column says when the solver's own cost or status disagrees with it.
+
+use std::fs;
+use std::io::{self, Write};
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+use std::time::Instant;
+
+use clap::{Parser, ValueEnum};
+use lotwright::capacity::milp::{self, MilpOptions, MilpResult, MilpStatus};
+use lotwright::error::Location;
+use lotwright::eval::evaluate;
+use lotwright::model::{BucketKind, Calendar, Item, Plan, Resource, Routing, Scenario};
+use lotwright::Error;
+
+#[derive(Parser)]
+#[command(about = "Solve Trigeiro-Thomas-McClain instances with the lotwright MILP")]
+struct Args {
+    /// Time limit of each MILP solve, in seconds.
+    #[arg(long, default_value_t = milp::DEFAULT_TIME_LIMIT)]
+    time_limit: f64,
+    /// Which model to solve; `both` also solves the LP relaxation of each.
+    #[arg(long, value_enum, default_value_t = Formulation::Strong)]
+    formulation: Formulation,
+    /// Solve at most N instances (after filtering, in the order read).
+    #[arg(long)]
+    limit: Option<usize>,
+    /// Keep instances whose file name contains TEXT (repeatable: any may match).
+    #[arg(long, value_name = "TEXT")]
+    filter: Vec<String>,
+    /// Keep instances whose file name ends with this replicate letter.
+    #[arg(long, value_name = "LETTER")]
+    replicate: Option<char>,
+    /// Threads HiGHS may use (HiGHS's own choice if not given).
+    #[arg(long)]
+    threads: Option<u32>,
+    /// Instance files, or folders (every file in them that looks like an instance).
+    #[arg(required = true, value_name = "DIR_OR_FILES")]
+    paths: Vec<PathBuf>,
+}
+
+#[derive(Clone, Copy, PartialEq, Eq, ValueEnum)]
+enum Formulation {
+    /// Facility-location model (the library's default).
+    Strong,
+    /// Textbook big-M stock-flow model.
+    Plain,
+    /// Both MILPs and both LP relaxations.
+    Both,
+}
+
+/// One instance as read from its file.
+struct Instance {
+    name: String,
+    capacity: f64,
+    /// Per item: capacity per unit, holding cost, setup time, setup cost.
+    items: Vec<[f64; 4]>,
+    /// `demand[period][item]`.
+    demand: Vec<Vec<f64>>,
+}
+
+/// One MILP solve, with the evaluation of its plan.
+struct Run {
+    status: MilpStatus,
+    cost: f64,
+    bound: f64,
+    seconds: f64,
+    /// `evaluate(...).total_cost()` and feasibility of the plan, when there is one.
+    evaluated: Option<(f64, bool)>,
+}
+
+impl Run {
+    fn has_plan(&self) -> bool {
+        matches!(self.status, MilpStatus::Optimal | MilpStatus::Feasible)
+    }
+
+    /// Relative gap in percent, when there is a plan.
+    fn gap(&self) -> Option<f64> {
+        self.has_plan()
+            .then(|| 100.0 * (self.cost - self.bound).max(0.0) / self.cost.abs().max(1e-9))
+    }
+}
+
+/// Everything measured on one instance.
+struct Outcome {
+    name: String,
+    main: Run,
+    /// With `--formulation both`: the plain MILP and the two LP bounds.
+    plain: Option<Run>,
+    lp_strong: Option<f64>,
+    lp_plain: Option<f64>,
+    warnings: Vec<String>,
+}
+
+enum Failure {
+    Input(Error),
+    Output(io::Error),
+}
+
+impl From<Error> for Failure {
+    fn from(e: Error) -> Self {
+        Failure::Input(e)
+    }
+}
+
+impl From<io::Error> for Failure {
+    fn from(e: io::Error) -> Self {
+        Failure::Output(e)
+    }
+}
+
+fn main() -> ExitCode {
+    match run(Args::parse()) {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(Failure::Output(e)) if e.kind() == io::ErrorKind::BrokenPipe => ExitCode::SUCCESS,
+        Err(Failure::Output(e)) => {
+            eprintln!("error: cannot write the table: {e}");
+            ExitCode::from(1)
+        }
+        Err(Failure::Input(e)) => {
+            eprintln!("error: {e}");
+            ExitCode::from(2)
+        }
+    }
+}
+
+fn run(args: Args) -> Result<(), Failure> {
+    if !(args.time_limit.is_finite() && args.time_limit > 0.0) {
+        return Err(
+            Error::Usage("--time-limit must be a positive number of seconds".into()).into(),
+        );
+    }
+    if args.limit == Some(0) || args.threads == Some(0) {
+        return Err(Error::Usage("--limit and --threads must be at least 1".into()).into());
+    }
+    let instances = read_instances(&args)?;
+    if instances.is_empty() {
+        return Err(Error::Usage("no instance matched the paths and filters given".into()).into());
+    }
+    let both = args.formulation == Formulation::Both;
+    let options = |plain, relax| MilpOptions {
+        time_limit: args.time_limit,
+        gap: None,
+        threads: args.threads,
+        plain,
+        relax,
+    };
+    let mut out = io::stdout().lock();
+    let threads = args
+        .threads
+        .map_or("HiGHS default".to_string(), |t| t.to_string());
+    writeln!(
+        out,
+        "{} instances, time limit {} s per MILP, formulation {}, threads {}, {} cores visible",
+        instances.len(),
+        args.time_limit,
+        formulation_name(args.formulation),
+        threads,
+        std::thread::available_parallelism().map_or(0, |n| n.get()),
+    )?;
+    writeln!(out, "{}", header(both))?;
+    out.flush()?;
+    let started = Instant::now();
+    let mut outcomes = Vec::with_capacity(instances.len());
+    for instance in &instances {
+        let scenario = scenario(instance);
+        let main_plain = args.formulation == Formulation::Plain;
+        let main = solve(&scenario, &options(main_plain, false));
+        let mut outcome = Outcome {
+            name: instance.name.clone(),
+            main,
+            plain: None,
+            lp_strong: None,
+            lp_plain: None,
+            warnings: Vec::new(),
+        };
+        if both {
+            outcome.plain = Some(solve(&scenario, &options(true, false)));
+            outcome.lp_strong = relaxation(&scenario, &options(false, true));
+            outcome.lp_plain = relaxation(&scenario, &options(true, true));
+        }
+        outcome.warnings = checks(&outcome);
+        writeln!(out, "{}", row(&outcome, both))?;
+        out.flush()?;
+        outcomes.push(outcome);
+    }
+    write!(out, "{}", totals(&outcomes, both))?;
+    writeln!(
+        out,
+        "wall time {:.1} s; peak memory (VmHWM) {}",
+        started.elapsed().as_secs_f64(),
+        peak_memory().map_or("unavailable".into(), |kib| format!(
+            "{:.1} MiB",
+            kib as f64 / 1024.0
+        ))
+    )?;
+    Ok(())
+}
+
+fn formulation_name(formulation: Formulation) -> &'static str {
+    match formulation {
+        Formulation::Strong => "strong (facility location)",
+        Formulation::Plain => "plain (big-M)",
+        Formulation::Both => "both",
+    }
+}
+
+// ---------------------------------------------------------------- reading
+
+/// The instances named by the paths, filtered, in order (folders by file
+/// name). A file named on the command line must be an instance; in a folder,
+/// files whose first line is not `n T` (a licence, a readme) are skipped.
+fn read_instances(args: &Args) -> Result<Vec<Instance>, Error> {
+    let mut files: Vec<(PathBuf, bool)> = Vec::new();
+    for path in &args.paths {
+        let unreadable =
+            |e: io::Error| Error::input(Location::file(path), format!("cannot read: {e}"));
+        if fs::metadata(path).map_err(unreadable)?.is_dir() {
+            let mut listed: Vec<PathBuf> = fs::read_dir(path)
+                .map_err(unreadable)?
+                .filter_map(|entry| entry.ok().map(|e| e.path()))
+                .filter(|p| p.is_file() && !file_name(p).starts_with('.'))
+                .collect();
+            listed.sort();
+            files.extend(listed.into_iter().map(|p| (p, true)));
+        } else {
+            files.push((path.clone(), false));
+        }
+    }
+    let wanted = |name: &str| {
+        (args.filter.is_empty() || args.filter.iter().any(|f| name.contains(f.as_str())))
+            && args.replicate.is_none_or(|r| name.ends_with(r))
+    };
+    let mut instances = Vec::new();
+    for (path, listed) in files {
+        let name = file_name(&path);
+        if !wanted(&name) {
+            continue;
+        }
+        if args.limit.is_some_and(|n| instances.len() >= n) {
+            break;
+        }
+        let text = fs::read(&path)
+            .map_err(|e| Error::input(Location::file(&path), format!("cannot read: {e}")))?;
+        let text = String::from_utf8_lossy(&text);
+        if listed && !looks_like_instance(&text) {
+            eprintln!(
+                "note: skipped {}: its first line is not `n T`",
+                path.display()
+            );
+            continue;
+        }
+        instances.push(parse_instance(&path, name, &text)?);
+    }
+    Ok(instances)
+}
+
+fn file_name(path: &Path) -> String {
+    path.file_name().map_or_else(
+        || path.display().to_string(),
+        |n| n.to_string_lossy().into_owned(),
+    )
+}
+
+fn looks_like_instance(text: &str) -> bool {
+    let first = text.lines().find(|l| !l.trim().is_empty()).unwrap_or("");
+    let tokens: Vec<&str> = first.split_whitespace().collect();
+    tokens.len() == 2 && tokens.iter().all(|t| t.parse::<usize>().is_ok())
+}
+
+/// The non-blank lines of a file, with their 1-based numbers.
+struct Lines<'a> {
+    path: &'a Path,
+    lines: Box<dyn Iterator<Item = (u64, &'a str)> + 'a>,
+    last: u64,
+}
+
+impl<'a> Lines<'a> {
+    fn new(path: &'a Path, text: &'a str) -> Self {
+        let lines = text
+            .lines()
+            .enumerate()
+            .map(|(k, l)| (k as u64 + 1, l))
+            .filter(|(_, l)| !l.trim().is_empty());
+        Lines {
+            path,
+            lines: Box::new(lines),
+            last: 0,
+        }
+    }
+
+    /// The next line as exactly `fields.len()` non-negative numbers.
+    fn numbers(&mut self, what: &str, fields: &[String]) -> Result<(u64, Vec<f64>), Error> {
+        let Some((number, line)) = self.lines.next() else {
+            let message = format!("the file ends here; expected {what} next");
+            return Err(Error::input(Location::line(self.path, self.last), message));
+        };
+        self.last = number;
+        let tokens: Vec<&str> = line.split_whitespace().collect();
+        if tokens.len() != fields.len() {
+            let message = format!(
+                "expected {what}: {} number(s) ({}), found {}",
+                fields.len(),
+                fields.join(", "),
+                tokens.len()
+            );
+            return Err(Error::input(Location::line(self.path, number), message));
+        }
+        let mut values = Vec::with_capacity(tokens.len());
+        for (k, (token, field)) in tokens.iter().zip(fields).enumerate() {
+            let cell = || Location::cell(self.path, number, k + 1, field);
+            let value: f64 = token
+                .parse()
+                .map_err(|_| Error::input(cell(), format!("`{token}` is not a number")))?;
+            if !value.is_finite() || value < 0.0 {
+                let message = format!("`{token}` must be a finite number, 0 or more");
+                return Err(Error::input(cell(), message));
+            }
+            values.push(value);
+        }
+        Ok((number, values))
+    }
+}
+
+/// Reads one instance (format in shared/benchmarks/README.md). Lines after
+/// the demand (the generator's notes) are ignored.
+fn parse_instance(path: &Path, name: String, text: &str) -> Result<Instance, Error> {
+    let mut lines = Lines::new(path, text);
+    let names = |list: &[&str]| list.iter().map(|s| s.to_string()).collect::<Vec<_>>();
+    let (line, size) = lines.numbers("the header `n T`", &names(&["items", "periods"]))?;
+    let whole = |v: f64| v.fract() == 0.0 && (1.0..=10_000.0).contains(&v);
+    if !size.iter().all(|&v| whole(v)) {
+        let message = "items and periods must be whole numbers from 1 to 10000";
+        return Err(Error::input(Location::line(path, line), message));
+    }
+    let (items, periods) = (size[0] as usize, size[1] as usize);
+    lines.numbers("the unit cost", &names(&["unit cost"]))?;
+    let (line, capacity) = lines.numbers("the capacity per period", &names(&["capacity"]))?;
+    if capacity[0] <= 0.0 {
+        return Err(Error::input(
+            Location::line(path, line),
+            "capacity must be above 0",
+        ));
+    }
+    let item_fields = names(&[
+        "capacity per unit",
+        "holding cost",
+        "setup time",
+        "setup cost",
+    ]);
+    let mut item_rows = Vec::with_capacity(items);
+    for i in 0..items {
+        let (_, v) = lines.numbers(&format!("item {} of {items}", i + 1), &item_fields)?;
+        item_rows.push([v[0], v[1], v[2], v[3]]);
+    }
+    let demand_fields: Vec<String> = (1..=items).map(|i| format!("demand of item {i}")).collect();
+    let mut demand = Vec::with_capacity(periods);
+    for t in 0..periods {
+        let what = format!("the demand of period {} of {periods}", t + 1);
+        demand.push(lines.numbers(&what, &demand_fields)?.1);
+    }
+    Ok(Instance {
+        name,
+        capacity: capacity[0],
+        items: item_rows,
+        demand,
+    })
+}
+
+/// The instance as a lotwright scenario (unit cost 0; see the module doc).
+fn scenario(instance: &Instance) -> Scenario {
+    let periods = instance.demand.len();
+    let items = instance
+        .items
+        .iter()
+        .enumerate()
+        .map(|(i, &[_, holding_cost, _, setup_cost])| Item {
+            id: format!("item{}", i + 1),
+            setup_cost: vec![setup_cost; periods],
+            nominal_setup_cost: setup_cost,
+            nominal_holding_cost: holding_cost,
+            holding_cost: vec![holding_cost; periods],
+            unit_cost: vec![0.0; periods],
+            initial_stock: 0.0,
+            safety_stock: 0.0,
+            lead_time: 0,
+            min_lot: 0.0,
+            lot_multiple: None,
+            max_lot: None,
+            backlog_cost: None,
+            fixed_lot: None,
+            ending_stock: 0.0,
+            demand: instance.demand.iter().map(|row| row[i]).collect(),
+            receipts: vec![0.0; periods],
+        })
+        .collect();
+    let routings = instance
+        .items
+        .iter()
+        .enumerate()
+        .map(|(i, &[per_unit, _, setup_time, _])| Routing {
+            item: i,
+            resource: 0,
+            per_unit,
+            setup_time,
+        })
+        .collect();
+    Scenario {
+        name: instance.name.clone(),
+        currency: None,
+        calendar: Calendar {
+            start: chrono::NaiveDate::from_ymd_opt(2027, 1, 4).unwrap_or_default(),
+            kind: BucketKind::Week,
+            periods,
+        },
+        items,
+        resources: vec![Resource {
+            id: "machine".into(),
+            capacity: vec![instance.capacity; periods],
+            overtime_capacity: vec![0.0; periods],
+            overtime_cost: 0.0,
+        }],
+        routings,
+    }
+}
+
+// ---------------------------------------------------------------- solving
+
+fn all_items(scenario: &Scenario) -> Vec<usize> {
+    (0..scenario.items.len()).collect()
+}
+
+fn solve(scenario: &Scenario, options: &MilpOptions) -> Run {
+    let result: MilpResult = milp::solve(scenario, &all_items(scenario), options);
+    let has_plan = matches!(result.status, MilpStatus::Optimal | MilpStatus::Feasible);
+    let evaluated = has_plan.then(|| {
+        let plan = Plan {
+            receipts: result.receipts.clone(),
+        };
+        let evaluation = evaluate(scenario, &plan);
+        (evaluation.total_cost(), evaluation.feasible)
+    });
+    Run {
+        status: result.status,
+        cost: result.objective,
+        bound: result.lower_bound,
+        seconds: result.seconds,
+        evaluated,
+    }
+}
+
+/// The LP relaxation's value, when HiGHS solved it.
+fn relaxation(scenario: &Scenario, options: &MilpOptions) -> Option<f64> {
+    let result = milp::solve(scenario, &all_items(scenario), options);
+    (result.status == MilpStatus::Optimal).then_some(result.objective)
+}
+
+fn close(a: f64, b: f64) -> bool {
+    (a - b).abs() <= 1e-6 * a.abs().max(b.abs()).max(1.0)
+}
+
+/// Disagreements between the solver, `evaluate` and the two formulations.
+fn checks(outcome: &Outcome) -> Vec<String> {
+    let mut warnings = Vec::new();
+    let runs = [
+        Some(("", &outcome.main)),
+        outcome.plain.as_ref().map(|p| ("plain ", p)),
+    ];
+    for (label, run) in runs.into_iter().flatten() {
+        if let Some((cost, feasible)) = run.evaluated {
+            if !close(run.cost, cost) {
+                warnings.push(format!("{label}cost {:.3} but eval {cost:.3}", run.cost));
+            }
+            if !feasible {
+                warnings.push(format!("{label}plan infeasible in eval"));
+            }
+        }
+    }
+    let plans: Vec<f64> = runs_with_plan(outcome).map(|r| r.cost).collect();
+    let best = plans.iter().copied().fold(f64::INFINITY, f64::min);
+    if let Some(plain) = &outcome.plain {
+        let main = &outcome.main;
+        let both_optimal =
+            main.status == MilpStatus::Optimal && plain.status == MilpStatus::Optimal;
+        if both_optimal && !close(main.cost, plain.cost) {
+            warnings.push("the two optima differ".into());
+        }
+        for (label, run) in [("strong", main), ("plain", plain)] {
+            if run.bound.is_finite() && run.bound > best && !close(run.bound, best) {
+                warnings.push(format!("{label} bound above a known plan's cost"));
+            }
+        }
+    }
+    for (label, lp) in [("strong", outcome.lp_strong), ("plain", outcome.lp_plain)] {
+        if let Some(lp) = lp {
+            if lp > best && !close(lp, best) {
+                warnings.push(format!("{label} LP above a plan's cost"));
+            }
+        }
+    }
+    if let (Some(strong), Some(plain)) = (outcome.lp_strong, outcome.lp_plain) {
+        if strong < plain && !close(strong, plain) {
+            warnings.push("strong LP below plain LP".into());
+        }
+    }
+    warnings
+}
+
+fn runs_with_plan(outcome: &Outcome) -> impl Iterator<Item = &Run> {
+    std::iter::once(&outcome.main)
+        .chain(outcome.plain.as_ref())
+        .filter(|r| r.has_plan())
+}
+
+// ---------------------------------------------------------------- rendering
+
+fn status_name(status: MilpStatus) -> &'static str {
+    match status {
+        MilpStatus::Optimal => "optimal",
+        MilpStatus::Feasible => "feasible",
+        MilpStatus::NoPlan => "no plan",
+        MilpStatus::Infeasible => "infeasible",
+    }
+}
+
+fn number(value: Option<f64>, decimals: usize) -> String {
+    match value {
+        Some(v) if v.is_finite() => format!("{v:.decimals$}"),
+        _ => "-".into(),
+    }
+}
+
+fn header(both: bool) -> String {
+    let mut line = format!(
+        "{:<9} {:<10} {:>10} {:>10} {:>7} {:>7}",
+        "instance", "status", "cost", "bound", "gap %", "s"
+    );
+    if both {
+        line += &format!(
+            " {:>10} {:>10} {:<10} {:>7} {:>7}",
+            "LP strong", "LP plain", "plain", "gap %", "s"
+        );
+    }
+    line + " check"
+}
+
+fn row(outcome: &Outcome, both: bool) -> String {
+    let main = &outcome.main;
+    let plan_cost = main.has_plan().then_some(main.cost);
+    let bound = main.bound.is_finite().then_some(main.bound);
+    let mut line = format!(
+        "{:<9} {:<10} {:>10} {:>10} {:>7} {:>7.2}",
+        outcome.name,
+        status_name(main.status),
+        number(plan_cost, 1),
+        number(bound, 1),
+        number(main.gap(), 2),
+        main.seconds
+    );
+    if both {
+        let plain = outcome.plain.as_ref();
+        line += &format!(
+            " {:>10} {:>10} {:<10} {:>7} {:>7}",
+            number(outcome.lp_strong, 1),
+            number(outcome.lp_plain, 1),
+            plain.map_or("-", |p| status_name(p.status)),
+            number(plain.and_then(Run::gap), 2),
+            number(plain.map(|p| p.seconds), 2),
+        );
+    }
+    let check = if outcome.warnings.is_empty() {
+        "ok".to_string()
+    } else {
+        format!("WARNING: {}", outcome.warnings.join("; "))
+    };
+    format!("{line} {check}")
+}
+
+/// Totals over the runs of one formulation.
+fn summary<'a>(label: &str, runs: impl Iterator<Item = &'a Run>) -> String {
+    let runs: Vec<&Run> = runs.collect();
+    let count = |s| runs.iter().filter(|r| r.status == s).count();
+    let mut seconds: Vec<f64> = runs.iter().map(|r| r.seconds).collect();
+    seconds.sort_by(f64::total_cmp);
+    let median = match seconds.len() {
+        0 => None,
+        n if n % 2 == 1 => Some(seconds[n / 2]),
+        n => Some((seconds[n / 2 - 1] + seconds[n / 2]) / 2.0),
+    };
+    let gaps: Vec<f64> = runs.iter().filter_map(|r| r.gap()).collect();
+    let mean_gap = (!gaps.is_empty()).then(|| gaps.iter().sum::<f64>() / gaps.len() as f64);
+    let max_gap = gaps.iter().copied().reduce(f64::max);
+    format!(
+        "{label}: {} instances, {} proven optimal, {} feasible, {} no plan, {} infeasible; \
+         median {} s; mean gap {} %, max gap {} % (over the {} with a plan)\n",
+        runs.len(),
+        count(MilpStatus::Optimal),
+        count(MilpStatus::Feasible),
+        count(MilpStatus::NoPlan),
+        count(MilpStatus::Infeasible),
+        number(median, 2),
+        number(mean_gap, 2),
+        number(max_gap, 2),
+        gaps.len()
+    )
+}
+
+fn totals(outcomes: &[Outcome], both: bool) -> String {
+    let mut text = String::from("totals\n");
+    text += &summary("  main  ", outcomes.iter().map(|o| &o.main));
+    let warned = outcomes.iter().filter(|o| !o.warnings.is_empty()).count();
+    text += &format!("  instances with a warning: {warned}\n");
+    if !both {
+        return text;
+    }
+    text += &summary("  plain ", outcomes.iter().filter_map(|o| o.plain.as_ref()));
+    // Root gap: how far each LP bound sits below the best plan found.
+    let mut strong_gaps = Vec::new();
+    let mut plain_gaps = Vec::new();
+    for outcome in outcomes {
+        let best = runs_with_plan(outcome)
+            .map(|r| r.cost)
+            .fold(f64::INFINITY, f64::min);
+        if !best.is_finite() {
+            continue;
+        }
+        if let (Some(s), Some(p)) = (outcome.lp_strong, outcome.lp_plain) {
+            strong_gaps.push(100.0 * (best - s) / best);
+            plain_gaps.push(100.0 * (best - p) / best);
+        }
+    }
+    let mean = |v: &[f64]| (!v.is_empty()).then(|| v.iter().sum::<f64>() / v.len() as f64);
+    text += &format!(
+        "  LP bound below the best plan found: strong {} %, plain {} % (mean over {})\n",
+        number(mean(&strong_gaps), 2),
+        number(mean(&plain_gaps), 2),
+        strong_gaps.len()
+    );
+    text
+}
+
+/// Peak resident memory of this process in KiB, from /proc/self/status.
+fn peak_memory() -> Option<u64> {
+    let status = fs::read_to_string("/proc/self/status").ok()?;
+    let line = status.lines().find_map(|l| l.strip_prefix("VmHWM:"))?;
+    line.trim().trim_end_matches("kB").trim().parse().ok()
+}

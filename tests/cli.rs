@@ -1,0 +1,476 @@
+//! The command line on fixture scenarios written into temporary folders:
+//! `plan` (tables, JSON, `--out`), `check` of the plan it wrote, `eoq`, and
+//! the exit codes and messages of bad input. The fixtures have no resources
+//! or routing, so every item is solved by the single-item methods.
+
+mod common;
+
+use std::path::Path;
+use std::process::{Command, Output};
+
+use common::{scenario_dir, weekly_toml};
+use serde_json::Value;
+
+fn lotwright(args: &[&str]) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_lotwright"))
+        .args(args)
+        .output()
+        .expect("the binary runs")
+}
+
+fn path(p: &Path) -> &str {
+    p.to_str().expect("a UTF-8 temporary path")
+}
+
+fn stdout(output: &Output) -> String {
+    String::from_utf8_lossy(&output.stdout).into_owned()
+}
+
+fn stderr(output: &Output) -> String {
+    String::from_utf8_lossy(&output.stderr).into_owned()
+}
+
+fn json(output: &Output) -> Value {
+    serde_json::from_slice(&output.stdout).unwrap_or_else(|e| {
+        panic!(
+            "stdout is one JSON object ({e}):\n{}\nstderr:\n{}",
+            stdout(output),
+            stderr(output)
+        )
+    })
+}
+
+fn number(value: &Value, key: &str) -> f64 {
+    value[key]
+        .as_f64()
+        .unwrap_or_else(|| panic!("{key} is a number in {value}"))
+}
+
+const ITEMS: &str = "item,setup_cost,holding_cost,unit_cost,initial_stock,lead_time,fixed_lot\n\
+A,80,2,0,0,0,50\n\
+B,40,0.5,3,25,1,\n";
+
+const DEMAND: &str = "item,period,quantity\n\
+A,1,18\nA,2,30\nA,3,42\nA,4,5\nA,5,20\n\
+B,1,20\nB,2,15\nB,4,30\nB,5,10\n";
+
+/// Two items over five weeks, no resources: A is the Nahmias lot-sizing
+/// example (requirements 18, 30, 42, 5, 20; K = 80; h = 2; values from
+/// memory, optimum 310) with a fixed lot of 50; B has stock, a unit cost
+/// and a lead time of one week, and no fixed lot.
+fn fixture() -> tempfile::TempDir {
+    scenario_dir(&[
+        ("scenario.toml", &weekly_toml(5)),
+        ("items.csv", ITEMS),
+        ("demand.csv", DEMAND),
+    ])
+}
+
+const METHODS: [&str; 8] = [
+    "optimal",
+    "lot-for-lot",
+    "fixed-lot",
+    "eoq",
+    "poq",
+    "silver-meal",
+    "least-unit-cost",
+    "part-period-balancing",
+];
+
+#[test]
+fn plan_prints_a_comparison_naming_every_method() {
+    let dir = fixture();
+    let output = lotwright(&["plan", path(dir.path())]);
+    assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
+    let text = stdout(&output);
+    for method in METHODS {
+        assert!(
+            text.lines()
+                .any(|line| line.split_whitespace().next() == Some(method)),
+            "no row for {method} in:\n{text}"
+        );
+    }
+}
+
+#[test]
+fn plan_json_has_the_contract_keys() {
+    let dir = fixture();
+    let output = lotwright(&["plan", path(dir.path()), "--json"]);
+    assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
+    let value = json(&output);
+    assert_eq!(value["status"], "optimal");
+    let total = number(&value, "total_cost");
+    // Proven optimal: the lower bound is the cost and the gap is zero.
+    assert!((number(&value, "lower_bound") - total).abs() < 1e-9);
+    assert_eq!(number(&value, "gap"), 0.0);
+    for kind in ["setup", "holding", "unit", "backlog", "overtime"] {
+        assert!(value["costs"][kind].is_number(), "costs.{kind} in {value}");
+    }
+    let orders = value["orders"].as_array().expect("orders is a list");
+    assert!(!orders.is_empty());
+    for order in orders {
+        for key in [
+            "item",
+            "period",
+            "date",
+            "release_period",
+            "release_date",
+            "quantity",
+        ] {
+            assert!(!order[key].is_null(), "order without {key}: {order}");
+        }
+        // Item B has a lead time of one week: released a bucket earlier.
+        let lead = if order["item"] == "B" { 1 } else { 0 };
+        assert_eq!(
+            order["release_period"].as_i64().unwrap(),
+            order["period"].as_i64().unwrap() - lead
+        );
+    }
+    let comparison = value["comparison"]
+        .as_array()
+        .expect("comparison is a list");
+    let methods: Vec<&str> = comparison
+        .iter()
+        .map(|row| row["method"].as_str().expect("method is text"))
+        .collect();
+    assert_eq!(methods, METHODS);
+    for row in comparison {
+        for key in [
+            "method",
+            "status",
+            "total_cost",
+            "feasible",
+            "setups",
+            "ending_stock_value",
+        ] {
+            assert!(!row[key].is_null(), "comparison row without {key}: {row}");
+        }
+        // No rule beats the proven optimum.
+        if row["feasible"] == true {
+            assert!(number(row, "total_cost") >= total - 1e-9, "{row}");
+        }
+    }
+    assert_eq!(comparison[0]["status"], "optimal");
+    assert!((number(&comparison[0], "total_cost") - total).abs() < 1e-9);
+    // B has no fixed lot: the fixed-lot row says it is ordered lot-for-lot.
+    let fixed = &comparison[2];
+    let notes = fixed["notes"].to_string();
+    assert!(
+        notes.contains("lot-for-lot") && notes.contains('B'),
+        "{notes}"
+    );
+}
+
+#[test]
+fn plan_json_includes_the_optimum_of_the_published_example() {
+    // Item A alone is the Nahmias example (values from memory): 310.
+    // Item B is hand-computed. Stock 25 covers week 1 (5 left); orders
+    // arrive from week 2 on and must bring 50 in all (purchase 3 x 50 =
+    // 150). Holding the 5 left in week 1 costs 2.50 whatever the plan.
+    //   one order of 50 in week 2: 40 + 0.5 x (40 + 40 + 10) = 85
+    //   10 in week 2, 40 in week 4: 80 + 0.5 x 10 = 85 (a tie)
+    //   40 in week 2, 10 in week 5: 80 + 0.5 x (30 + 30) = 110
+    //   10, 30, 10 in weeks 2, 4, 5: 120
+    // B costs 150 + 2.50 + 85 = 237.50; the plan 310 + 237.50 = 547.50.
+    let dir = fixture();
+    let value = json(&lotwright(&["plan", path(dir.path()), "--json"]));
+    let items = value["items"].as_array().expect("items is a list");
+    let a = items.iter().find(|i| i["item"] == "A").expect("item A");
+    assert!((number(&a["costs"], "total") - 310.0).abs() < 1e-9, "{a}");
+    let b = items.iter().find(|i| i["item"] == "B").expect("item B");
+    assert!((number(&b["costs"], "unit") - 150.0).abs() < 1e-9, "{b}");
+    assert!((number(&b["costs"], "total") - 237.5).abs() < 1e-9, "{b}");
+    assert!((number(&value, "total_cost") - 547.5).abs() < 1e-9);
+}
+
+#[test]
+fn without_any_fixed_lot_there_is_no_fixed_lot_row() {
+    let dir = scenario_dir(&[
+        ("scenario.toml", &weekly_toml(3)),
+        ("items.csv", "item,setup_cost,holding_cost\nA,50,1\n"),
+        ("demand.csv", "item,period,quantity\nA,1,10\nA,3,10\n"),
+    ]);
+    let value = json(&lotwright(&["plan", path(dir.path()), "--json"]));
+    let methods: Vec<&str> = value["comparison"]
+        .as_array()
+        .expect("comparison is a list")
+        .iter()
+        .map(|row| row["method"].as_str().unwrap())
+        .collect();
+    assert!(!methods.contains(&"fixed-lot"), "{methods:?}");
+    assert_eq!(methods.len(), 7);
+}
+
+#[test]
+fn infeasible_scenario_exits_1_and_still_prints_json() {
+    // Demand in period 1, lead time 1, no stock: no order can arrive in time.
+    let dir = scenario_dir(&[
+        ("scenario.toml", &weekly_toml(3)),
+        (
+            "items.csv",
+            "item,setup_cost,holding_cost,lead_time\nA,50,1,1\n",
+        ),
+        ("demand.csv", "item,period,quantity\nA,1,10\nA,2,10\n"),
+    ]);
+    let output = lotwright(&["plan", path(dir.path()), "--json"]);
+    assert_eq!(output.status.code(), Some(1), "stderr: {}", stderr(&output));
+    let value = json(&output);
+    assert_eq!(value["status"], "infeasible");
+    let comparison = value["comparison"]
+        .as_array()
+        .expect("comparison is a list");
+    assert_eq!(comparison[0]["method"], "optimal");
+    assert_eq!(comparison[0]["status"], "infeasible");
+    assert_eq!(comparison[0]["feasible"], false);
+    // The explanation names the item and the period of the shortage.
+    let notes = value["notes"].to_string();
+    assert!(notes.contains("period 1"), "{notes}");
+}
+
+#[test]
+fn missing_items_csv_exits_2_naming_the_file() {
+    let dir = scenario_dir(&[
+        ("scenario.toml", &weekly_toml(3)),
+        ("demand.csv", "item,period,quantity\nA,1,10\n"),
+    ]);
+    let output = lotwright(&["plan", path(dir.path()), "--json"]);
+    assert_eq!(output.status.code(), Some(2));
+    assert!(stderr(&output).contains("items.csv"), "{}", stderr(&output));
+}
+
+#[test]
+fn a_bad_cell_exits_2_with_file_line_and_column() {
+    let dir = scenario_dir(&[
+        ("scenario.toml", &weekly_toml(3)),
+        ("items.csv", "item,setup_cost,holding_cost\nA,50,1\n"),
+        ("demand.csv", "item,period,quantity\nA,1,10\nA,2,12 pcs\n"),
+    ]);
+    let parent = tempfile::tempdir().expect("a temporary folder");
+    let out = parent.path().join("out");
+    let output = lotwright(&["plan", path(dir.path()), "--out", path(&out)]);
+    assert_eq!(output.status.code(), Some(2));
+    let message = stderr(&output);
+    assert!(message.contains("demand.csv"), "{message}");
+    assert!(message.contains("line 3"), "{message}");
+    assert!(message.contains("column 3"), "{message}");
+    assert!(message.contains("12 pcs"), "{message}");
+    // Bad input writes nothing.
+    assert!(!out.exists(), "an output folder was written");
+}
+
+#[test]
+fn a_date_before_the_start_exits_2_saying_how_to_fix_it() {
+    let dir = scenario_dir(&[
+        ("scenario.toml", &weekly_toml(3)),
+        ("items.csv", "item,setup_cost,holding_cost\nA,50,1\n"),
+        (
+            "demand.csv",
+            "item,date,quantity\nA,2027-01-04,10\nA,2026-12-28,5\n",
+        ),
+    ]);
+    let output = lotwright(&["plan", path(dir.path())]);
+    assert_eq!(output.status.code(), Some(2));
+    let message = stderr(&output);
+    assert!(message.contains("demand.csv"), "{message}");
+    assert!(message.contains("line 3"), "{message}");
+    assert!(message.contains("2026-12-28"), "{message}");
+    // How to fix it: the start in scenario.toml, or the row.
+    assert!(
+        message.contains("scenario.toml") && message.contains("start"),
+        "{message}"
+    );
+}
+
+#[test]
+fn out_writes_plan_and_comparison_and_refuses_an_existing_folder() {
+    let dir = fixture();
+    let parent = tempfile::tempdir().expect("a temporary folder");
+    let out = parent.path().join("result");
+    let output = lotwright(&["plan", path(dir.path()), "--out", path(&out), "--json"]);
+    assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
+    let plan_json = json(&output);
+    let plan_csv = std::fs::read_to_string(out.join("plan.csv")).expect("plan.csv written");
+    let mut lines = plan_csv.lines();
+    assert_eq!(
+        lines.next(),
+        Some("item,period,date,release_period,release_date,quantity")
+    );
+    assert_eq!(
+        lines.count(),
+        plan_json["orders"].as_array().unwrap().len(),
+        "one row per order"
+    );
+    let comparison =
+        std::fs::read_to_string(out.join("comparison.csv")).expect("comparison.csv written");
+    let methods: Vec<&str> = comparison
+        .lines()
+        .skip(1)
+        .map(|line| line.split(',').next().unwrap())
+        .collect();
+    assert_eq!(methods, METHODS);
+
+    // The folder now exists: refused without --force, and left untouched.
+    std::fs::write(out.join("note.txt"), "mine").unwrap();
+    let again = lotwright(&["plan", path(dir.path()), "--out", path(&out)]);
+    assert_eq!(again.status.code(), Some(2));
+    assert!(stderr(&again).contains("--force"), "{}", stderr(&again));
+    assert!(out.join("note.txt").exists());
+
+    // With --force it is replaced whole.
+    let forced = lotwright(&["plan", path(dir.path()), "--out", path(&out), "--force"]);
+    assert_eq!(forced.status.code(), Some(0), "stderr: {}", stderr(&forced));
+    assert!(out.join("plan.csv").exists());
+    assert!(
+        !out.join("note.txt").exists(),
+        "the old folder was replaced"
+    );
+    assert_eq!(
+        std::fs::read_to_string(out.join("plan.csv")).unwrap(),
+        plan_csv
+    );
+}
+
+#[test]
+fn out_refuses_the_scenario_folder_itself() {
+    let dir = fixture();
+    let output = lotwright(&[
+        "plan",
+        path(dir.path()),
+        "--out",
+        path(dir.path()),
+        "--force",
+    ]);
+    assert_eq!(output.status.code(), Some(2));
+    assert!(dir.path().join("items.csv").exists());
+    assert!(!dir.path().join("plan.csv").exists());
+}
+
+#[test]
+fn check_accepts_the_written_plan_as_it_is() {
+    let dir = fixture();
+    let parent = tempfile::tempdir().expect("a temporary folder");
+    let out = parent.path().join("result");
+    let planned = lotwright(&["plan", path(dir.path()), "--out", path(&out), "--json"]);
+    assert_eq!(
+        planned.status.code(),
+        Some(0),
+        "stderr: {}",
+        stderr(&planned)
+    );
+    let plan_cost = number(&json(&planned), "total_cost");
+    let orders = out.join("plan.csv");
+    let output = lotwright(&[
+        "check",
+        path(dir.path()),
+        "--orders",
+        path(&orders),
+        "--json",
+    ]);
+    assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
+    let value = json(&output);
+    assert_eq!(value["feasible"], true);
+    assert!((number(&value, "total_cost") - plan_cost).abs() < 1e-9);
+    assert!((number(&value, "best_cost") - plan_cost).abs() < 1e-9);
+    for key in ["shortages", "overloads", "violations"] {
+        let list = value[key].as_array().unwrap_or_else(|| panic!("{key}"));
+        assert!(list.is_empty(), "{key}: {list:?}");
+    }
+}
+
+#[test]
+fn check_reports_a_shortage_in_a_proposal() {
+    // Hand-computed: item A ordered lot-for-lot but missing bucket 3's 42.
+    let dir = fixture();
+    let proposal = scenario_dir(&[(
+        "orders.csv",
+        "item,period,quantity\nA,1,18\nA,2,30\nA,4,5\nA,5,20\nB,4,50\n",
+    )]);
+    let orders = proposal.path().join("orders.csv");
+    let output = lotwright(&[
+        "check",
+        path(dir.path()),
+        "--orders",
+        path(&orders),
+        "--json",
+    ]);
+    assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
+    let value = json(&output);
+    assert_eq!(value["feasible"], false);
+    let shortages = value["shortages"].as_array().expect("shortages is a list");
+    assert!(
+        shortages
+            .iter()
+            .any(|s| s["item"] == "A" && s["period"] == 3 && s["quantity"] == 42.0),
+        "{shortages:?}"
+    );
+}
+
+#[test]
+fn the_same_input_gives_the_same_output() {
+    let dir = fixture();
+    let first = lotwright(&["plan", path(dir.path()), "--json"]);
+    let second = lotwright(&["plan", path(dir.path()), "--json"]);
+    assert_eq!(first.stdout, second.stdout);
+    let first = lotwright(&["plan", path(dir.path())]);
+    let second = lotwright(&["plan", path(dir.path())]);
+    assert_eq!(first.stdout, second.stdout);
+}
+
+#[test]
+fn eoq_json_gives_the_classic_lot_and_cost() {
+    // Common practice arithmetic: EOQ = sqrt(2 x 4000 x 100 / 5) = 400;
+    // ordering and holding cost are equal there, 4000 / 400 x 100 = 1000
+    // and 400 / 2 x 5 = 1000, so the total is 2000; 10 orders per time
+    // unit, one every 0.1 of it.
+    let output = lotwright(&[
+        "eoq",
+        "--demand",
+        "4000",
+        "--setup-cost",
+        "100",
+        "--holding-cost",
+        "5",
+        "--json",
+    ]);
+    assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
+    let value = json(&output);
+    assert!((number(&value, "eoq") - 400.0).abs() < 1e-9);
+    assert!((number(&value, "total_cost") - 2000.0).abs() < 1e-9);
+    assert!((number(&value, "orders") - 10.0).abs() < 1e-9);
+    assert!((number(&value, "cycle") - 0.1).abs() < 1e-12);
+}
+
+#[test]
+fn backlog_item_plans_with_safety_stock_as_a_target_only() {
+    // Hand-computed (the same data as in tests/exact_published.rs):
+    // demand 10, 0, 50; setup 100, holding 1, backlog 1.5 a unit a week.
+    // One order of 60 in week 3, backlogging week 1's 10 units for two
+    // weeks, costs 100 + 15 + 15 = 130, less than any plan without backlog
+    // (200). Safety stock 5 is a target for an item that allows backlog:
+    // its breaches are reported, not binding.
+    let dir = scenario_dir(&[
+        ("scenario.toml", &weekly_toml(3)),
+        (
+            "items.csv",
+            "item,setup_cost,holding_cost,backlog_cost,safety_stock\nA,100,1,1.5,5\n",
+        ),
+        ("demand.csv", "item,period,quantity\nA,1,10\nA,3,50\n"),
+    ]);
+    let output = lotwright(&["plan", path(dir.path()), "--json"]);
+    assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
+    let value = json(&output);
+    assert_eq!(value["status"], "optimal");
+    assert!((number(&value, "total_cost") - 130.0).abs() < 1e-9);
+    assert!((number(&value["costs"], "backlog") - 30.0).abs() < 1e-9);
+    let violations = value["violations"]
+        .as_array()
+        .expect("violations is a list");
+    assert!(
+        !violations.is_empty(),
+        "the safety-stock breaches are reported"
+    );
+    assert!(violations
+        .iter()
+        .all(|v| v["kind"] == "safety-stock" && v["binding"] == false));
+    assert_eq!(value["comparison"][0]["feasible"], true);
+}
