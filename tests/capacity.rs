@@ -1,0 +1,64 @@
+//! Shared capacity through the command line: the demo plant is solved to
+//! proven optimality within capacity, and a scenario whose capacity cannot
+//! carry its demand is explained.
+
+use std::process::Command;
+
+fn lotwright(args: &[&str]) -> (i32, String, String) {
+    let output = Command::new(env!("CARGO_BIN_EXE_lotwright"))
+        .args(args)
+        .output()
+        .expect("the binary runs");
+    (
+        output.status.code().unwrap_or(-1),
+        String::from_utf8_lossy(&output.stdout).into_owned(),
+        String::from_utf8_lossy(&output.stderr).into_owned(),
+    )
+}
+
+fn write(dir: &std::path::Path, files: &[(&str, &str)]) {
+    for (name, body) in files {
+        std::fs::write(dir.join(name), body).unwrap();
+    }
+}
+
+#[test]
+fn capacity_shortfall_is_explained_with_resource_bucket_and_amount() {
+    let dir = tempfile::tempdir().unwrap();
+    write(
+        dir.path(),
+        &[
+            ("scenario.toml", "name = \"short\"\nstart = \"2027-01-04\"\nbucket = \"week\"\nperiods = 3\n"),
+            ("items.csv", "item,setup_cost,holding_cost\nA,50,1\nB,50,1\n"),
+            ("demand.csv", "item,period,quantity\nA,1,5\nA,2,10\nB,2,10\nB,3,4\n"),
+            ("resources.csv", "resource,capacity\nLINE,10\n"),
+            ("routing.csv", "item,resource,per_unit,setup_time\nA,LINE,1,1\nB,LINE,1,1\n"),
+        ],
+    );
+    let (code, stdout, _) = lotwright(&["plan", dir.path().to_str().unwrap(), "--json"]);
+    assert_eq!(code, 1, "{stdout}");
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    assert_eq!(json["status"], "infeasible");
+    let notes = json["notes"].to_string();
+    // By period 2 the load is 5 + 10 + 10 units plus two setups of 1 = 27
+    // against 20 of capacity: 7 short.
+    assert!(notes.contains("LINE"), "{notes}");
+    assert!(notes.contains("period 2"), "{notes}");
+    assert!(notes.contains("by 7"), "{notes}");
+    assert!(notes.contains("overtime"), "{notes}");
+}
+
+#[test]
+fn the_demo_plant_is_planned_within_capacity_and_proven_optimal() {
+    let demo = concat!(env!("CARGO_MANIFEST_DIR"), "/demo-data/harbor-bakeware");
+    let (code, stdout, stderr) = lotwright(&["plan", demo, "--json", "--method", "optimal"]);
+    assert_eq!(code, 0, "{stderr}");
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    assert_eq!(json["status"], "optimal");
+    assert_eq!(json["overloads"].as_array().map(Vec::len), Some(0));
+    assert_eq!(json["shortages"].as_array().map(Vec::len), Some(0));
+    let solver = json["solver"].as_str().unwrap();
+    assert!(solver.contains("milp"), "{solver}");
+    let components = json["components"].as_array().unwrap();
+    assert!(components.iter().all(|c| c["status"] == "optimal"));
+}
