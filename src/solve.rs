@@ -226,6 +226,15 @@ pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
         let mut single = Vec::new();
         for &i in &group.items {
             let item = &scenario.items[i];
+            if item.allows_backlog() && periods > exact::BACKLOG_PERIOD_LIMIT {
+                component.status = Status::Unknown;
+                notes.push(format!(
+                    "item {}: backlog over {} buckets is beyond the dynamic program's limit of {}; no plan was computed",
+                    item.id, periods, exact::BACKLOG_PERIOD_LIMIT
+                ));
+                plan.receipts[i] = rules::plan(item, Sizing::Rule(Rule::LotForLot));
+                continue;
+            }
             match exact::solve(item) {
                 Some(exact) => single.push((i, exact)),
                 None => {
@@ -235,7 +244,7 @@ pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
                 }
             }
         }
-        if component.status == Status::Infeasible {
+        if component.status != Status::Optimal {
             for (i, exact) in single {
                 plan.receipts[i] = exact.receipts;
             }
@@ -292,9 +301,10 @@ pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
     } else {
         Status::Optimal
     };
+    // The proven bound: exact for dynamic programs, HiGHS's dual bound for
+    // the MILP (within 1e-6 of the cost when proven optimal).
     let lower_bound = match status {
-        Status::Optimal => Some(evaluation.total_cost()),
-        Status::Feasible => Some(lower_bound.min(evaluation.total_cost())),
+        Status::Optimal | Status::Feasible => Some(lower_bound.min(evaluation.total_cost())),
         _ => None,
     };
     MethodResult {
@@ -378,10 +388,9 @@ fn take_milp(
 
 fn meets_lot_constraints(item: &crate::model::Item, receipts: &[f64]) -> bool {
     let tolerance = crate::eval::quantity_tolerance(item);
-    receipts
-        .iter()
-        .filter(|&&q| q > 0.0)
-        .all(|&q| (rules::constrain(item, q) - q).abs() <= tolerance)
+    receipts.iter().filter(|&&q| q > 0.0).all(|&q| {
+        (rules::constrain(item, q) - q).abs() <= tolerance && q <= rules::lot_cap(item) + tolerance
+    })
 }
 
 /// Why an item has no feasible plan: need before an order can arrive.

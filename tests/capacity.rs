@@ -28,11 +28,23 @@ fn capacity_shortfall_is_explained_with_resource_bucket_and_amount() {
     write(
         dir.path(),
         &[
-            ("scenario.toml", "name = \"short\"\nstart = \"2027-01-04\"\nbucket = \"week\"\nperiods = 3\n"),
-            ("items.csv", "item,setup_cost,holding_cost\nA,50,1\nB,50,1\n"),
-            ("demand.csv", "item,period,quantity\nA,1,5\nA,2,10\nB,2,10\nB,3,4\n"),
+            (
+                "scenario.toml",
+                "name = \"short\"\nstart = \"2027-01-04\"\nbucket = \"week\"\nperiods = 3\n",
+            ),
+            (
+                "items.csv",
+                "item,setup_cost,holding_cost\nA,50,1\nB,50,1\n",
+            ),
+            (
+                "demand.csv",
+                "item,period,quantity\nA,1,5\nA,2,10\nB,2,10\nB,3,4\n",
+            ),
             ("resources.csv", "resource,capacity\nLINE,10\n"),
-            ("routing.csv", "item,resource,per_unit,setup_time\nA,LINE,1,1\nB,LINE,1,1\n"),
+            (
+                "routing.csv",
+                "item,resource,per_unit,setup_time\nA,LINE,1,1\nB,LINE,1,1\n",
+            ),
         ],
     );
     let (code, stdout, _) = lotwright(&["plan", dir.path().to_str().unwrap(), "--json"]);

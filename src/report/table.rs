@@ -250,7 +250,13 @@ fn faults(evaluation: &Evaluation, out: &mut String) {
     }
     if !evaluation.overloads.is_empty() {
         let _ = writeln!(out, "\nCapacity overloads (load includes setup time)");
-        let mut grid = Grid::new(&["resource", "period", "load", "capacity + overtime", "over by"]);
+        let mut grid = Grid::new(&[
+            "resource",
+            "period",
+            "load",
+            "capacity + overtime",
+            "over by",
+        ]);
         for o in &evaluation.overloads {
             grid.push(vec![
                 o.resource.clone(),

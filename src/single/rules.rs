@@ -133,8 +133,30 @@ pub fn plan(item: &Item, sizing: Sizing) -> Vec<f64> {
                 cover(&need[t..], next - t)
             }
         };
-        let quantity = constrain(item, lot);
-        receipts[t] = quantity;
+        let sized = constrain(item, lot.max(need[t]));
+        let cap = lot_cap(item);
+        receipts[t] = sized.min(cap);
+        // A lot above max_lot is split: the part above it is received in
+        // earlier buckets where room is left (built ahead), and what still
+        // does not fit leaves need uncovered, which moves to the next bucket.
+        let mut rest = sized - receipts[t];
+        for s in (lead..t).rev() {
+            if rest <= tolerance {
+                break;
+            }
+            let room = cap - receipts[s];
+            if room <= tolerance {
+                continue;
+            }
+            let piece = if receipts[s] > 0.0 {
+                rest.min(room)
+            } else {
+                constrain(item, rest).min(room)
+            };
+            receipts[s] += piece;
+            rest -= piece;
+        }
+        let quantity = sized - rest.max(0.0);
         // Use the lot against this and later need; what it leaves uncovered
         // in this bucket moves to the next one.
         let mut left = quantity;
@@ -217,22 +239,25 @@ fn cover_count(item: &Item, rule: Rule, t: usize, need: &[f64]) -> usize {
     }
 }
 
-/// Applies the lot constraints to a sized lot: raise to the minimum lot,
-/// round up to the lot multiple, cut at the maximum lot (the largest
-/// multiple within it).
+/// Applies the lot constraints to a sized lot: raise to the minimum lot and
+/// round up to the lot multiple. The maximum lot is applied by splitting
+/// (see `plan`); `lot_cap` gives it.
 pub fn constrain(item: &Item, lot: f64) -> f64 {
     let mut quantity = lot.max(item.min_lot);
     if let Some(multiple) = item.lot_multiple {
         quantity = (quantity / multiple - 1e-9).ceil().max(1.0) * multiple;
     }
-    if let Some(max) = item.max_lot {
-        let cap = match item.lot_multiple {
-            Some(multiple) => (max / multiple + 1e-9).floor() * multiple,
-            None => max,
-        };
-        quantity = quantity.min(cap);
-    }
     quantity
+}
+
+/// The largest lot allowed in one bucket: max_lot, or the largest multiple
+/// within it.
+pub fn lot_cap(item: &Item) -> f64 {
+    match (item.max_lot, item.lot_multiple) {
+        (Some(max), Some(multiple)) => (max / multiple + 1e-9).floor() * multiple,
+        (Some(max), None) => max,
+        (None, _) => f64::INFINITY,
+    }
 }
 
 #[cfg(test)]
@@ -270,11 +295,22 @@ mod tests {
         item.max_lot = Some(110.0);
         assert_eq!(constrain(&item, 10.0), 50.0);
         assert_eq!(constrain(&item, 51.0), 75.0);
-        assert_eq!(constrain(&item, 400.0), 100.0);
+        assert_eq!(lot_cap(&item), 100.0);
     }
 
     #[test]
-    fn a_cut_lot_leaves_the_rest_to_the_next_bucket() {
+    fn a_lot_above_max_lot_is_built_ahead_where_there_is_room() {
+        let mut item = item_with(&[20.0, 0.0, 150.0], 1.0, 1.0);
+        item.max_lot = Some(100.0);
+        // Bucket 3 needs 150: 100 in bucket 3, the other 50 ahead in bucket 2.
+        assert_eq!(
+            plan(&item, Sizing::Rule(Rule::LotForLot)),
+            vec![20.0, 50.0, 100.0]
+        );
+    }
+
+    #[test]
+    fn a_lot_that_cannot_be_split_ahead_leaves_need_to_the_next_bucket() {
         let mut item = item_with(&[150.0, 0.0, 0.0], 1.0, 1.0);
         item.max_lot = Some(100.0);
         assert_eq!(
