@@ -2,6 +2,8 @@
 //! on single items, an exhaustive search on tiny shared-capacity scenarios,
 //! and the one evaluation of its plans.
 
+#![allow(clippy::needless_range_loop)]
+
 use lotwright::capacity::milp::{self, MilpOptions, MilpStatus};
 use lotwright::eval::evaluate;
 use lotwright::model::{BucketKind, Calendar, Item, Plan, Resource, Routing, Scenario};
@@ -264,7 +266,7 @@ fn lot_constraints_are_met_by_the_milp() {
     assert_eq!(result.status, MilpStatus::Optimal);
     for &q in result.receipts[0].iter().filter(|&&q| q > 0.0) {
         assert!(
-            q >= 50.0 && q <= 100.0 && (q / 25.0).fract() == 0.0,
+            (50.0..=100.0).contains(&q) && (q / 25.0).fract() == 0.0,
             "lot {q}"
         );
     }
