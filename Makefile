@@ -4,7 +4,7 @@
 
 DEMO ?= demo-data/harbor-bakeware
 
-.PHONY: setup demo test lint bench
+.PHONY: setup demo test lint
 
 setup:
 	@bash scripts/setup.sh

@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # Installs what a fresh Debian machine with only Rust and gcc lacks: cmake,
-# libclang and a C++ compiler (to build HiGHS), and Chromium (for the web
-# report's browser test). Does nothing when they are already there.
+# libclang and a C++ compiler, which building HiGHS needs. Does nothing when
+# they are already there.
 set -euo pipefail
 
 need=()
@@ -10,7 +10,6 @@ command -v g++ >/dev/null 2>&1 || need+=(g++)
 if ! ls /usr/lib/llvm-*/lib/libclang*.so* >/dev/null 2>&1 && ! ls /usr/lib/x86_64-linux-gnu/libclang*.so* >/dev/null 2>&1; then
   need+=(libclang-dev)
 fi
-command -v chromium >/dev/null 2>&1 || need+=(chromium)
 
 if [ ${#need[@]} -gt 0 ]; then
   echo "setup: installing ${need[*]}"

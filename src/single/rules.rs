@@ -89,8 +89,8 @@ pub fn poq_interval(item: &Item) -> usize {
 pub enum Sizing<'a> {
     /// A named rule.
     Rule(Rule),
-    /// Cover up to the next bucket where `orders` has an order (used to turn
-    /// an unconstrained optimum into a plan that meets the lot constraints).
+    /// Cover up to the next bucket where the given plan has an order (a
+    /// plan's lot timing with the lot constraints applied).
     Follow(&'a [f64]),
 }
 
