@@ -202,7 +202,7 @@ fn run(args: Args) -> Result<(), Failure> {
         out.flush()?;
         outcomes.push(outcome);
     }
-    write!(out, "{}", totals(&outcomes, both))?;
+    write!(out, "{}", totals(&outcomes, args.formulation))?;
     writeln!(
         out,
         "wall time {:.1} s; peak memory (VmHWM) {}",
@@ -623,9 +623,15 @@ fn summary<'a>(label: &str, runs: impl Iterator<Item = &'a Run>) -> String {
     )
 }
 
-fn totals(outcomes: &[Outcome], both: bool) -> String {
+fn totals(outcomes: &[Outcome], formulation: Formulation) -> String {
+    let both = formulation == Formulation::Both;
+    let label = if formulation == Formulation::Plain {
+        "  plain "
+    } else {
+        "  strong"
+    };
     let mut text = String::from("totals\n");
-    text += &summary("  main  ", outcomes.iter().map(|o| &o.main));
+    text += &summary(label, outcomes.iter().map(|o| &o.main));
     let warned = outcomes.iter().filter(|o| !o.warnings.is_empty()).count();
     text += &format!("  instances with a warning: {warned}\n");
     if !both {

@@ -227,6 +227,9 @@ impl<'a> Cell<'a> {
 }
 
 fn not_a_number(text: &str) -> String {
+    if chrono::NaiveDate::parse_from_str(text, "%Y-%m-%d").is_ok() {
+        return format!("{text} is a date, not a number; give dates in a date column instead of period");
+    }
     let digits_then_text = text
         .trim_start_matches(|c: char| c.is_ascii_digit() || c == '.' || c == '-')
         .trim();
