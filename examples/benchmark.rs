@@ -28,7 +28,8 @@ use clap::{Parser, ValueEnum};
 use lotwright::capacity::milp::{self, MilpOptions, MilpResult, MilpStatus};
 use lotwright::error::Location;
 use lotwright::eval::evaluate;
-use lotwright::model::{BucketKind, Calendar, Item, Plan, Resource, Routing, Scenario};
+use lotwright::input::literature;
+use lotwright::model::{Plan, Scenario};
 use lotwright::Error;
 
 #[derive(Parser)]
@@ -67,16 +68,6 @@ enum Formulation {
     Both,
 }
 
-/// One instance as read from its file.
-struct Instance {
-    name: String,
-    capacity: f64,
-    /// Per item: capacity per unit, holding cost, setup time, setup cost.
-    items: Vec<[f64; 4]>,
-    /// `demand[period][item]`.
-    demand: Vec<Vec<f64>>,
-}
-
 /// One MILP solve, with the evaluation of its plan.
 struct Run {
     status: MilpStatus,
@@ -84,7 +75,8 @@ struct Run {
     bound: f64,
     seconds: f64,
     /// `evaluate(...).total_cost()` and feasibility of the plan, when there is one.
-    evaluated: Option<(f64, bool)>,
+    /// (solver objective when proven optimal, else the evaluated cost; feasible; evaluated cost)
+    evaluated: Option<(f64, bool, f64)>,
 }
 
 impl Run {
@@ -162,6 +154,7 @@ fn run(args: Args) -> Result<(), Failure> {
         threads: args.threads,
         plain,
         relax,
+        extra_capacity: false,
     };
     let mut out = io::stdout().lock();
     let threads = args
@@ -180,12 +173,11 @@ fn run(args: Args) -> Result<(), Failure> {
     out.flush()?;
     let started = Instant::now();
     let mut outcomes = Vec::with_capacity(instances.len());
-    for instance in &instances {
-        let scenario = scenario(instance);
+    for scenario in &instances {
         let main_plain = args.formulation == Formulation::Plain;
-        let main = solve(&scenario, &options(main_plain, false));
+        let main = solve(scenario, &options(main_plain, false));
         let mut outcome = Outcome {
-            name: instance.name.clone(),
+            name: scenario.name.clone(),
             main,
             plain: None,
             lp_strong: None,
@@ -193,9 +185,9 @@ fn run(args: Args) -> Result<(), Failure> {
             warnings: Vec::new(),
         };
         if both {
-            outcome.plain = Some(solve(&scenario, &options(true, false)));
-            outcome.lp_strong = relaxation(&scenario, &options(false, true));
-            outcome.lp_plain = relaxation(&scenario, &options(true, true));
+            outcome.plain = Some(solve(scenario, &options(true, false)));
+            outcome.lp_strong = relaxation(scenario, &options(false, true));
+            outcome.lp_plain = relaxation(scenario, &options(true, true));
         }
         outcome.warnings = checks(&outcome);
         writeln!(out, "{}", row(&outcome, both))?;
@@ -228,7 +220,7 @@ fn formulation_name(formulation: Formulation) -> &'static str {
 /// The instances named by the paths, filtered, in order (folders by file
 /// name). A file named on the command line must be an instance; in a folder,
 /// files whose first line is not `n T` (a licence, a readme) are skipped.
-fn read_instances(args: &Args) -> Result<Vec<Instance>, Error> {
+fn read_instances(args: &Args) -> Result<Vec<Scenario>, Error> {
     let mut files: Vec<(PathBuf, bool)> = Vec::new();
     for path in &args.paths {
         let unreadable =
@@ -268,7 +260,7 @@ fn read_instances(args: &Args) -> Result<Vec<Instance>, Error> {
             );
             continue;
         }
-        instances.push(parse_instance(&path, name, &text)?);
+        instances.push(literature::parse_capacitated(&path, &name, &text)?);
     }
     Ok(instances)
 }
@@ -284,162 +276,6 @@ fn looks_like_instance(text: &str) -> bool {
     let first = text.lines().find(|l| !l.trim().is_empty()).unwrap_or("");
     let tokens: Vec<&str> = first.split_whitespace().collect();
     tokens.len() == 2 && tokens.iter().all(|t| t.parse::<usize>().is_ok())
-}
-
-/// The non-blank lines of a file, with their 1-based numbers.
-struct Lines<'a> {
-    path: &'a Path,
-    lines: Box<dyn Iterator<Item = (u64, &'a str)> + 'a>,
-    last: u64,
-}
-
-impl<'a> Lines<'a> {
-    fn new(path: &'a Path, text: &'a str) -> Self {
-        let lines = text
-            .lines()
-            .enumerate()
-            .map(|(k, l)| (k as u64 + 1, l))
-            .filter(|(_, l)| !l.trim().is_empty());
-        Lines {
-            path,
-            lines: Box::new(lines),
-            last: 0,
-        }
-    }
-
-    /// The next line as exactly `fields.len()` non-negative numbers.
-    fn numbers(&mut self, what: &str, fields: &[String]) -> Result<(u64, Vec<f64>), Error> {
-        let Some((number, line)) = self.lines.next() else {
-            let message = format!("the file ends here; expected {what} next");
-            return Err(Error::input(Location::line(self.path, self.last), message));
-        };
-        self.last = number;
-        let tokens: Vec<&str> = line.split_whitespace().collect();
-        if tokens.len() != fields.len() {
-            let message = format!(
-                "expected {what}: {} number(s) ({}), found {}",
-                fields.len(),
-                fields.join(", "),
-                tokens.len()
-            );
-            return Err(Error::input(Location::line(self.path, number), message));
-        }
-        let mut values = Vec::with_capacity(tokens.len());
-        for (k, (token, field)) in tokens.iter().zip(fields).enumerate() {
-            let cell = || Location::cell(self.path, number, k + 1, field);
-            let value: f64 = token
-                .parse()
-                .map_err(|_| Error::input(cell(), format!("`{token}` is not a number")))?;
-            if !value.is_finite() || value < 0.0 {
-                let message = format!("`{token}` must be a finite number, 0 or more");
-                return Err(Error::input(cell(), message));
-            }
-            values.push(value);
-        }
-        Ok((number, values))
-    }
-}
-
-/// Reads one instance (format in shared/benchmarks/README.md). Lines after
-/// the demand (the generator's notes) are ignored.
-fn parse_instance(path: &Path, name: String, text: &str) -> Result<Instance, Error> {
-    let mut lines = Lines::new(path, text);
-    let names = |list: &[&str]| list.iter().map(|s| s.to_string()).collect::<Vec<_>>();
-    let (line, size) = lines.numbers("the header `n T`", &names(&["items", "periods"]))?;
-    let whole = |v: f64| v.fract() == 0.0 && (1.0..=10_000.0).contains(&v);
-    if !size.iter().all(|&v| whole(v)) {
-        let message = "items and periods must be whole numbers from 1 to 10000";
-        return Err(Error::input(Location::line(path, line), message));
-    }
-    let (items, periods) = (size[0] as usize, size[1] as usize);
-    lines.numbers("the unit cost", &names(&["unit cost"]))?;
-    let (line, capacity) = lines.numbers("the capacity per period", &names(&["capacity"]))?;
-    if capacity[0] <= 0.0 {
-        return Err(Error::input(
-            Location::line(path, line),
-            "capacity must be above 0",
-        ));
-    }
-    let item_fields = names(&[
-        "capacity per unit",
-        "holding cost",
-        "setup time",
-        "setup cost",
-    ]);
-    let mut item_rows = Vec::with_capacity(items);
-    for i in 0..items {
-        let (_, v) = lines.numbers(&format!("item {} of {items}", i + 1), &item_fields)?;
-        item_rows.push([v[0], v[1], v[2], v[3]]);
-    }
-    let demand_fields: Vec<String> = (1..=items).map(|i| format!("demand of item {i}")).collect();
-    let mut demand = Vec::with_capacity(periods);
-    for t in 0..periods {
-        let what = format!("the demand of period {} of {periods}", t + 1);
-        demand.push(lines.numbers(&what, &demand_fields)?.1);
-    }
-    Ok(Instance {
-        name,
-        capacity: capacity[0],
-        items: item_rows,
-        demand,
-    })
-}
-
-/// The instance as a lotwright scenario (unit cost 0; see the module doc).
-fn scenario(instance: &Instance) -> Scenario {
-    let periods = instance.demand.len();
-    let items = instance
-        .items
-        .iter()
-        .enumerate()
-        .map(|(i, &[_, holding_cost, _, setup_cost])| Item {
-            id: format!("item{}", i + 1),
-            setup_cost: vec![setup_cost; periods],
-            nominal_setup_cost: setup_cost,
-            nominal_holding_cost: holding_cost,
-            holding_cost: vec![holding_cost; periods],
-            unit_cost: vec![0.0; periods],
-            initial_stock: 0.0,
-            safety_stock: 0.0,
-            lead_time: 0,
-            min_lot: 0.0,
-            lot_multiple: None,
-            max_lot: None,
-            backlog_cost: None,
-            fixed_lot: None,
-            ending_stock: 0.0,
-            demand: instance.demand.iter().map(|row| row[i]).collect(),
-            receipts: vec![0.0; periods],
-        })
-        .collect();
-    let routings = instance
-        .items
-        .iter()
-        .enumerate()
-        .map(|(i, &[per_unit, _, setup_time, _])| Routing {
-            item: i,
-            resource: 0,
-            per_unit,
-            setup_time,
-        })
-        .collect();
-    Scenario {
-        name: instance.name.clone(),
-        currency: None,
-        calendar: Calendar {
-            start: chrono::NaiveDate::from_ymd_opt(2027, 1, 4).unwrap_or_default(),
-            kind: BucketKind::Week,
-            periods,
-        },
-        items,
-        resources: vec![Resource {
-            id: "machine".into(),
-            capacity: vec![instance.capacity; periods],
-            overtime_capacity: vec![0.0; periods],
-            overtime_cost: 0.0,
-        }],
-        routings,
-    }
 }
 
 // ---------------------------------------------------------------- solving
@@ -463,14 +299,21 @@ fn solve(scenario: &Scenario, options: &MilpOptions) -> Run {
         cost: result.objective,
         bound: result.lower_bound,
         seconds: result.seconds,
-        evaluated,
+        // A proven optimum's solver objective must be its plan's cost.
+        evaluated: evaluated.map(|(cost, feasible)| {
+            if result.status == MilpStatus::Optimal {
+                (result.solver_objective, feasible, cost)
+            } else {
+                (cost, feasible, cost)
+            }
+        }),
     }
 }
 
 /// The LP relaxation's value, when HiGHS solved it.
 fn relaxation(scenario: &Scenario, options: &MilpOptions) -> Option<f64> {
     let result = milp::solve(scenario, &all_items(scenario), options);
-    (result.status == MilpStatus::Optimal).then_some(result.objective)
+    (result.status == MilpStatus::Optimal).then_some(result.solver_objective)
 }
 
 fn close(a: f64, b: f64) -> bool {
@@ -485,9 +328,9 @@ fn checks(outcome: &Outcome) -> Vec<String> {
         outcome.plain.as_ref().map(|p| ("plain ", p)),
     ];
     for (label, run) in runs.into_iter().flatten() {
-        if let Some((cost, feasible)) = run.evaluated {
-            if !close(run.cost, cost) {
-                warnings.push(format!("{label}cost {:.3} but eval {cost:.3}", run.cost));
+        if let Some((solver, feasible, cost)) = run.evaluated {
+            if !close(run.cost, cost) || !close(solver, cost) {
+                warnings.push(format!("{label}cost {solver:.3} but eval {cost:.3}"));
             }
             if !feasible {
                 warnings.push(format!("{label}plan infeasible in eval"));

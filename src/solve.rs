@@ -263,6 +263,7 @@ pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
                     component.solver = "milp";
                     take_milp(
                         scenario,
+                        options,
                         &group_of(i),
                         &result,
                         &mut plan,
@@ -280,6 +281,7 @@ pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
             component.solver = "milp";
             take_milp(
                 scenario,
+                options,
                 &group,
                 &result,
                 &mut plan,
@@ -335,8 +337,10 @@ fn remaining(options: &MilpOptions, started: std::time::Instant) -> MilpOptions 
 }
 
 /// Folds a MILP result for `group` into the plan and the component.
+#[allow(clippy::too_many_arguments)]
 fn take_milp(
     scenario: &Scenario,
+    options: &MilpOptions,
     group: &capacity::Group,
     result: &capacity::milp::MilpResult,
     plan: &mut Plan,
@@ -371,7 +375,7 @@ fn take_milp(
             notes.push(if group.resources.is_empty() {
                 format!("{names}: no plan meets the lot constraints and stock floors")
             } else {
-                capacity::explain_capacity(scenario, group)
+                capacity::explain_capacity(scenario, group, options)
             });
         }
         MilpStatus::NoPlan => {

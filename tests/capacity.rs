@@ -63,7 +63,17 @@ fn capacity_shortfall_is_explained_with_resource_bucket_and_amount() {
 #[test]
 fn the_demo_plant_is_planned_within_capacity_and_proven_optimal() {
     let demo = concat!(env!("CARGO_MANIFEST_DIR"), "/demo-data/harbor-bakeware");
-    let (code, stdout, stderr) = lotwright(&["plan", demo, "--json", "--method", "optimal"]);
+    // A generous limit: the proof takes about half a minute on two idle
+    // cores, longer on a loaded machine, and the test is about the result.
+    let (code, stdout, stderr) = lotwright(&[
+        "plan",
+        demo,
+        "--json",
+        "--method",
+        "optimal",
+        "--time-limit",
+        "900",
+    ]);
     assert_eq!(code, 0, "{stderr}");
     let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
     assert_eq!(json["status"], "optimal");
@@ -73,4 +83,38 @@ fn the_demo_plant_is_planned_within_capacity_and_proven_optimal() {
     assert!(solver.contains("milp"), "{solver}");
     let components = json["components"].as_array().unwrap();
     assert!(components.iter().all(|c| c["status"] == "optimal"));
+}
+
+#[test]
+fn a_shortfall_the_cumulative_test_misses_is_found_by_the_extra_capacity_model() {
+    // Item A needs both lines, but LINE-1 runs only in week 1 and LINE-2 only
+    // in week 2: each line has room enough over the horizon, no single week
+    // has both. The least extra capacity is 5 units on one line.
+    let dir = tempfile::tempdir().unwrap();
+    write(
+        dir.path(),
+        &[
+            (
+                "scenario.toml",
+                "name = \"split\"\nstart = \"2027-01-04\"\nbucket = \"week\"\nperiods = 2\n",
+            ),
+            ("items.csv", "item,setup_cost,holding_cost\nA,50,1\n"),
+            ("demand.csv", "item,period,quantity\nA,2,5\n"),
+            ("resources.csv", "resource,capacity\nLINE-1,10\nLINE-2,10\n"),
+            (
+                "capacity.csv",
+                "resource,period,capacity\nLINE-1,2,0\nLINE-2,1,0\n",
+            ),
+            (
+                "routing.csv",
+                "item,resource,per_unit,setup_time\nA,LINE-1,1,0\nA,LINE-2,1,0\n",
+            ),
+        ],
+    );
+    let (code, stdout, _) = lotwright(&["plan", dir.path().to_str().unwrap(), "--json"]);
+    assert_eq!(code, 1, "{stdout}");
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    let notes = json["notes"].to_string();
+    assert!(notes.contains("least extra capacity"), "{notes}");
+    assert!(notes.contains("5 in period"), "{notes}");
 }

@@ -88,9 +88,9 @@ fn assert_objective_is_evaluation(s: &Scenario, result: &milp::MilpResult) {
         evaluation.violations
     );
     assert!(
-        close(evaluation.total_cost(), result.objective),
-        "objective {} but evaluation {}",
-        result.objective,
+        close(evaluation.total_cost(), result.solver_objective),
+        "solver objective {} but evaluation {}",
+        result.solver_objective,
         evaluation.total_cost()
     );
 }

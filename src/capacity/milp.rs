@@ -19,8 +19,8 @@ use std::time::Instant;
 use good_lp::{constraint, variable, Expression, ProblemVariables, SolverModel, Variable};
 use highs::HighsModelStatus;
 
-use crate::eval::quantity_tolerance;
-use crate::model::{Item, Scenario};
+use crate::eval::{evaluate, quantity_tolerance};
+use crate::model::{Item, Plan, Scenario};
 use crate::single::exact::shift;
 
 /// Limits for the solve.
@@ -35,6 +35,9 @@ pub struct MilpOptions {
     pub plain: bool,
     /// Solve the LP relaxation only (for the benchmark's bound comparison).
     pub relax: bool,
+    /// Find the least extra capacity that makes the plan possible instead
+    /// of the least cost (for explaining infeasible capacity).
+    pub extra_capacity: bool,
 }
 
 impl Default for MilpOptions {
@@ -45,6 +48,7 @@ impl Default for MilpOptions {
             threads: None,
             plain: false,
             relax: false,
+            extra_capacity: false,
         }
     }
 }
@@ -69,12 +73,19 @@ pub struct MilpResult {
     pub status: MilpStatus,
     /// Receipts by item of the component (in the order given), by bucket.
     pub receipts: Vec<Vec<f64>>,
-    /// The solver's objective (constant included).
+    /// The cost of the returned plan, as `eval` computes it. At a time
+    /// limit HiGHS's incumbent may pay for a setup with nothing received;
+    /// the plan drops it, so this can be below `solver_objective`.
     pub objective: f64,
+    /// HiGHS's objective value of its incumbent (constant included); equal
+    /// to `objective` when the solve is proven optimal.
+    pub solver_objective: f64,
     /// HiGHS's proven lower bound (constant included).
     pub lower_bound: f64,
     pub seconds: f64,
     pub hit_time_limit: bool,
+    /// With `extra_capacity`: (resource, release bucket, capacity missing).
+    pub shortfall: Vec<(usize, usize, f64)>,
 }
 
 /// Columns of one item in the model.
@@ -92,6 +103,8 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     let periods = scenario.periods();
     let mut vars = ProblemVariables::new();
     let mut objective = Expression::from(0.0);
+    let mut slack_total = Expression::from(0.0);
+    let mut slacks = Vec::new();
     let mut constant = 0.0;
     let mut constraints = Vec::new();
     let mut columns = Vec::with_capacity(items.len());
@@ -104,7 +117,7 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     };
     for &i in items {
         let item = &scenario.items[i];
-        let cap = capacity_bounds(scenario, i);
+        let cap = capacity_bounds(scenario, i, options.extra_capacity);
         let mut setup = vec![None; periods];
         for (j, slot) in setup.iter_mut().enumerate().skip(item.lead_time) {
             let y = binary(&mut vars);
@@ -186,6 +199,12 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
                 objective += resource.overtime_cost * overtime;
                 load -= overtime;
             }
+            if options.extra_capacity {
+                let extra = vars.add(variable().min(0.0));
+                load -= extra;
+                slack_total += extra;
+                slacks.push((r, t, extra));
+            }
             constraints.push(load.leq(resource.capacity[t]));
         }
     }
@@ -230,9 +249,11 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
             status: MilpStatus::Infeasible,
             receipts: vec![vec![0.0; periods]; items.len()],
             objective: f64::INFINITY,
+            solver_objective: f64::INFINITY,
             lower_bound: f64::INFINITY,
             seconds,
             hit_time_limit: false,
+            shortfall: Vec::new(),
         };
     }
     if !has_plan {
@@ -240,12 +261,14 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
             status: MilpStatus::NoPlan,
             receipts: vec![vec![0.0; periods]; items.len()],
             objective: f64::INFINITY,
+            solver_objective: f64::INFINITY,
             lower_bound: solved
                 .double_info_value(c"mip_dual_bound")
                 .unwrap_or(f64::NEG_INFINITY)
                 + constant,
             seconds,
             hit_time_limit,
+            shortfall: Vec::new(),
         };
     }
     let solution = solved.get_solution();
@@ -259,7 +282,7 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
             .map(|b| b + constant)
             .unwrap_or(f64::NEG_INFINITY)
     };
-    let receipts = columns
+    let receipts: Vec<Vec<f64>> = columns
         .iter()
         .zip(items)
         .map(|(c, &i)| {
@@ -284,6 +307,18 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
         objective_value - dual_bound
     };
     let proven = matches!(status, HighsModelStatus::Optimal) && gap <= OPTIMALITY_GAP;
+    let shortfall = slacks
+        .iter()
+        .map(|&(r, t, v)| (r, t, values[index[&v]]))
+        .filter(|&(_, _, amount)| amount > 1e-6)
+        .collect();
+    let plan_cost = evaluate(
+        &scenario.subset(items),
+        &Plan {
+            receipts: receipts.clone(),
+        },
+    )
+    .total_cost();
     MilpResult {
         status: if proven {
             MilpStatus::Optimal
@@ -291,10 +326,12 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
             MilpStatus::Feasible
         },
         receipts,
-        objective: objective_value,
-        lower_bound: dual_bound.min(objective_value),
+        objective: plan_cost,
+        solver_objective: objective_value,
+        lower_bound: dual_bound.min(plan_cost),
         seconds,
         hit_time_limit,
+        shortfall,
     }
 }
 
@@ -323,9 +360,11 @@ fn failed(periods: usize, items: usize, started: Instant) -> MilpResult {
         status: MilpStatus::NoPlan,
         receipts: vec![vec![0.0; periods]; items],
         objective: f64::INFINITY,
+        solver_objective: f64::INFINITY,
         lower_bound: f64::NEG_INFINITY,
         seconds: started.elapsed().as_secs_f64(),
         hit_time_limit: false,
+        shortfall: Vec::new(),
     }
 }
 
@@ -349,7 +388,7 @@ fn snap(item: &Item, quantity: f64) -> f64 {
 
 /// The most an item can receive in each bucket given the capacity of its
 /// resources net of setup time (infinite without routing).
-fn capacity_bounds(scenario: &Scenario, i: usize) -> Vec<f64> {
+fn capacity_bounds(scenario: &Scenario, i: usize, unlimited: bool) -> Vec<f64> {
     let item = &scenario.items[i];
     let periods = scenario.periods();
     (0..periods)
@@ -359,6 +398,9 @@ fn capacity_bounds(scenario: &Scenario, i: usize) -> Vec<f64> {
             }
             let t = j - item.lead_time;
             let mut bound = item.max_lot.unwrap_or(f64::INFINITY);
+            if unlimited {
+                return bound;
+            }
             for routing in scenario.routings_of(i) {
                 let resource = &scenario.resources[routing.resource];
                 let room =

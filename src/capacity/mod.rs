@@ -70,15 +70,14 @@ pub fn components(scenario: &Scenario) -> Vec<Group> {
 /// Why a group cannot be planned within capacity: the first bucket from
 /// which the load that must be released by then (net requirements, plus one
 /// setup per item with need) exceeds the cumulative capacity with overtime.
-pub fn explain_capacity(scenario: &Scenario, group: &Group) -> String {
+pub fn explain_capacity(scenario: &Scenario, group: &Group, options: &milp::MilpOptions) -> String {
     let periods = scenario.periods();
+    let quantity = crate::report::quantity;
     for &r in &group.resources {
         let resource = &scenario.resources[r];
         let mut capacity = 0.0;
-        let mut regular = 0.0;
         for t in 0..periods {
             capacity += resource.capacity[t] + resource.overtime_capacity[t];
-            regular += resource.capacity[t];
             let mut load = 0.0;
             for routing in scenario.routings.iter().filter(|x| x.resource == r) {
                 let item = &scenario.items[routing.item];
@@ -91,26 +90,50 @@ pub fn explain_capacity(scenario: &Scenario, group: &Group) -> String {
                 }
             }
             if load > capacity + 1e-6 * (1.0 + capacity) {
-                let short = load - capacity;
-                let overtime_note = if regular < load {
-                    format!(
-                        "{} more overtime capacity by then, or backlog allowed on its items, would be needed",
-                        crate::report::quantity((load - regular).ceil())
-                    )
-                } else {
-                    String::new()
-                };
+                let short = (load - capacity).ceil();
                 return format!(
-                    "resource {}: from period 1 to period {} the load that must be made by then ({}, with one setup per item) exceeds the capacity with overtime ({}) by {}; {}",
+                    "resource {}: from period 1 to period {} the load that must be made by then ({}, with one setup per item) exceeds the capacity with overtime ({}) by {}; {} more overtime capacity in those periods, or backlog allowed on its items, would make a plan possible",
                     resource.id,
                     t + 1,
-                    crate::report::quantity(load.round()),
-                    crate::report::quantity(capacity.round()),
-                    crate::report::quantity(short.ceil()),
-                    overtime_note
+                    quantity(load.round()),
+                    quantity(capacity.round()),
+                    quantity(short),
+                    quantity(short),
                 );
             }
         }
+    }
+    // The cumulative test misses what setup times, maximum lots, lead times
+    // and several resources do together: ask the MILP for the least extra
+    // capacity that makes a plan possible, and say where it is needed.
+    let extra = milp::MilpOptions {
+        extra_capacity: true,
+        time_limit: options.time_limit.min(30.0),
+        ..options.clone()
+    };
+    let result = milp::solve(scenario, &group.items, &extra);
+    if !result.shortfall.is_empty() {
+        let places: Vec<String> = result
+            .shortfall
+            .iter()
+            .map(|&(r, t, amount)| {
+                format!(
+                    "{} in period {} ({})",
+                    quantity((amount * 1000.0).ceil() / 1000.0),
+                    t + 1,
+                    scenario.resources[r].id
+                )
+            })
+            .collect();
+        let proven = if result.status == milp::MilpStatus::Optimal {
+            "the least extra capacity that makes a plan possible is"
+        } else {
+            "a plan becomes possible with extra capacity of (not proven least)"
+        };
+        return format!(
+            "no plan fits the capacity in every bucket, although the cumulative load fits: setup times, maximum lots or lead times leave too little room; {proven} {}. Overtime of that much, or backlog, would make it feasible",
+            places.join(", ")
+        );
     }
     let names: Vec<&str> = group
         .resources
@@ -118,7 +141,7 @@ pub fn explain_capacity(scenario: &Scenario, group: &Group) -> String {
         .map(|&r| scenario.resources[r].id.as_str())
         .collect();
     format!(
-        "no plan fits the capacity of {} in every bucket, although the cumulative load fits; setup times, maximum lots or lead times leave too little room. More overtime capacity or backlog would be needed",
+        "no plan fits the capacity of {} in every bucket, and no extra capacity alone makes one possible: maximum lots, lot multiples or lead times rule it out",
         names.join(", ")
     )
 }

@@ -2,6 +2,7 @@
 //! in PRODUCT.md, checked once, here, so everything after takes validated types.
 
 mod csvfile;
+pub mod literature;
 mod orders;
 mod settings;
 

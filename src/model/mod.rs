@@ -132,6 +132,29 @@ impl Scenario {
         self.items.iter().position(|item| item.id == id)
     }
 
+    /// The scenario of just these items (in this order), with every
+    /// resource and the routings of these items.
+    pub fn subset(&self, items: &[usize]) -> Scenario {
+        let routings = self
+            .routings
+            .iter()
+            .filter_map(|r| {
+                items.iter().position(|&i| i == r.item).map(|k| Routing {
+                    item: k,
+                    ..r.clone()
+                })
+            })
+            .collect();
+        Scenario {
+            name: self.name.clone(),
+            currency: self.currency.clone(),
+            calendar: self.calendar.clone(),
+            items: items.iter().map(|&i| self.items[i].clone()).collect(),
+            resources: self.resources.clone(),
+            routings,
+        }
+    }
+
     /// The routings of one item.
     pub fn routings_of(&self, item: usize) -> impl Iterator<Item = &Routing> {
         self.routings.iter().filter(move |r| r.item == item)
