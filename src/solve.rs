@@ -235,7 +235,14 @@ pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
                 plan.receipts[i] = rules::plan(item, Sizing::Rule(Rule::LotForLot));
                 continue;
             }
-            match exact::solve(item) {
+            // The O(T log T) program where no resource is shared; the
+            // general one (backlog) otherwise.
+            let solved = if group.resources.is_empty() && !item.allows_backlog() {
+                crate::single::fast::solve(item)
+            } else {
+                exact::solve(item)
+            };
+            match solved {
                 Some(exact) => single.push((i, exact)),
                 None => {
                     component.status = Status::Infeasible;
@@ -254,27 +261,35 @@ pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
         if group.resources.is_empty() {
             for (i, exact) in single {
                 let item = &scenario.items[i];
-                lower_bound += exact.cost;
                 if item.has_lot_constraints() && !meets_lot_constraints(item, &exact.receipts) {
-                    // Lot constraints: the MILP handles them exactly.
-                    let result =
-                        capacity::milp::solve(scenario, &[i], &remaining(options, started));
-                    lower_bound -= exact.cost;
-                    component.solver = "milp";
-                    take_milp(
+                    // Lot constraints: the program over stock levels for
+                    // whole quantities, else the MILP, handles them exactly.
+                    solve_constrained(
                         scenario,
                         options,
-                        &group_of(i),
-                        &result,
+                        started,
+                        i,
                         &mut plan,
                         &mut component,
                         &mut lower_bound,
                         &mut notes,
                     );
                 } else {
+                    lower_bound += exact.cost;
                     plan.receipts[i] = exact.receipts;
                 }
             }
+        } else if let [i] = group.items[..] {
+            solve_constrained(
+                scenario,
+                options,
+                started,
+                i,
+                &mut plan,
+                &mut component,
+                &mut lower_bound,
+                &mut notes,
+            );
         } else {
             let result =
                 capacity::milp::solve(scenario, &group.items, &remaining(options, started));
@@ -320,11 +335,69 @@ pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
     }
 }
 
-fn group_of(i: usize) -> capacity::Group {
-    capacity::Group {
-        items: vec![i],
-        resources: Vec::new(),
+/// One item with lot constraints or resources of its own: the dynamic
+/// program over stock levels when quantities are whole and the state space
+/// is within its bound, else the MILP (saying why).
+#[allow(clippy::too_many_arguments)]
+fn solve_constrained(
+    scenario: &Scenario,
+    options: &MilpOptions,
+    started: std::time::Instant,
+    i: usize,
+    plan: &mut Plan,
+    component: &mut Component,
+    lower_bound: &mut f64,
+    notes: &mut Vec<String>,
+) {
+    use capacity::single_dp::{self, NotApplicable};
+    let item = &scenario.items[i];
+    match single_dp::solve(scenario, i) {
+        Ok(Some((receipts, cost))) => {
+            component.solver = "dp";
+            plan.receipts[i] = receipts;
+            *lower_bound += cost;
+            return;
+        }
+        Ok(None) => {
+            component.status = Status::Infeasible;
+            plan.receipts[i] = rules::plan(item, Sizing::Rule(Rule::LotForLot));
+            let group = capacity::Group {
+                items: vec![i],
+                resources: scenario.routings_of(i).map(|r| r.resource).collect(),
+            };
+            notes.push(if group.resources.is_empty() {
+                format!("item {}: no plan meets its lot constraints and stock floors", item.id)
+            } else {
+                capacity::explain_capacity(scenario, &group, options)
+            });
+            return;
+        }
+        Err(NotApplicable::TooLarge(size)) => notes.push(format!(
+            "item {}: the dynamic program over stock levels would pass its bound ({:.1e} states and decisions against {:.0e}); solved by the MILP instead",
+            item.id,
+            size,
+            single_dp::STATE_LIMIT
+        )),
+        Err(NotApplicable::NotWhole) => {}
     }
+    let mut resources: Vec<usize> = scenario.routings_of(i).map(|r| r.resource).collect();
+    resources.sort_unstable();
+    let group = capacity::Group {
+        items: vec![i],
+        resources,
+    };
+    let result = capacity::milp::solve(scenario, &[i], &remaining(options, started));
+    component.solver = "milp";
+    take_milp(
+        scenario,
+        options,
+        &group,
+        &result,
+        plan,
+        component,
+        lower_bound,
+        notes,
+    );
 }
 
 /// The options with the time limit cut to what is left of the budget.

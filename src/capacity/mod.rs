@@ -3,6 +3,7 @@
 //! the explanation when capacity cannot be met.
 
 pub mod milp;
+pub mod single_dp;
 
 use crate::model::Scenario;
 

@@ -3,6 +3,7 @@
 
 pub mod eoq;
 pub mod exact;
+pub mod fast;
 pub mod rules;
 
 use crate::model::Item;

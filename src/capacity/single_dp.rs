@@ -1,0 +1,197 @@
+//! The capacitated single item, exact, by dynamic programming over stock
+//! levels, for whole quantities (the item has a `lot_multiple` and its
+//! demand, stock and receipts are whole numbers).
+//!
+//! The state is the end-of-bucket stock (negative for backlog); a decision is
+//! the number of lot multiples received in a bucket, within min_lot, max_lot
+//! and the capacity (with overtime) of the item's resources in the release
+//! bucket. Every feasible plan is a path through the states, so the least
+//! path is the optimum (Bellman's principle; the model of Florian and Klein
+//! 1971, "Deterministic production planning with concave costs and capacity
+//! constraints", Management Science 18(1), cited from memory, with general
+//! costs here).
+//!
+//! State-space bound: buckets x stock levels x lot counts. When it passes
+//! `STATE_LIMIT` the caller falls back to the MILP and says so.
+
+use crate::eval::quantity_tolerance;
+use crate::model::Scenario;
+
+/// The largest buckets x stock levels x decisions this program enumerates.
+pub const STATE_LIMIT: f64 = 2e8;
+
+/// Why the program does not apply to an item.
+#[derive(Debug, Clone, PartialEq)]
+pub enum NotApplicable {
+    /// Quantities are continuous, or the data are not whole numbers.
+    NotWhole,
+    /// The state space would pass the limit (its size is given).
+    TooLarge(f64),
+}
+
+/// The program's plan and its cost (as `eval` computes it); `None` inside
+/// `Ok` when no plan exists.
+pub type Solved = Option<(Vec<f64>, f64)>;
+
+fn whole(x: f64) -> bool {
+    x.fract() == 0.0 && x.abs() < 1e9
+}
+
+/// Solves item `i` of `scenario` (which uses resources no other item uses).
+pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
+    let item = &scenario.items[i];
+    let periods = item.periods();
+    let Some(multiple) = item.lot_multiple else {
+        return Err(NotApplicable::NotWhole);
+    };
+    let data_whole = whole(multiple)
+        && whole(item.initial_stock)
+        && item.demand.iter().chain(&item.receipts).all(|&x| whole(x))
+        && whole(item.safety_stock)
+        && whole(item.ending_stock);
+    if !data_whole {
+        return Err(NotApplicable::NotWhole);
+    }
+    let m = multiple as i64;
+    let total_demand: f64 = item.demand.iter().sum();
+    let supply: f64 = item.initial_stock + item.receipts.iter().sum::<f64>();
+    // Stock above all remaining need plus one lot is never useful; backlog
+    // never exceeds the demand.
+    let top = (total_demand + item.safety_stock.max(item.ending_stock) + item.min_lot + multiple)
+        .max(supply) as i64
+        + m;
+    let bottom = if item.allows_backlog() {
+        -(total_demand as i64)
+    } else {
+        0
+    };
+    let levels = (top - bottom + 1) as usize;
+    // Largest lot count per bucket from max_lot and capacity.
+    let routings: Vec<_> = scenario.routings_of(i).collect();
+    let mut most = vec![0i64; periods];
+    for (j, slot) in most.iter_mut().enumerate() {
+        if j < item.lead_time {
+            continue;
+        }
+        let r = j - item.lead_time;
+        let mut cap = item
+            .max_lot
+            .unwrap_or(f64::INFINITY)
+            .min((top - bottom) as f64);
+        for routing in &routings {
+            let resource = &scenario.resources[routing.resource];
+            let room = resource.capacity[r] + resource.overtime_capacity[r] - routing.setup_time;
+            if room < 0.0 {
+                cap = -1.0;
+            } else if routing.per_unit > 0.0 {
+                cap = cap.min(room / routing.per_unit);
+            }
+        }
+        *slot = if cap < 0.0 {
+            -1
+        } else {
+            (cap / multiple + 1e-9).floor() as i64
+        };
+    }
+    let decisions: f64 = most.iter().map(|&k| (k + 1).max(1) as f64).sum::<f64>();
+    let size = levels as f64 * decisions;
+    if size > STATE_LIMIT {
+        return Err(NotApplicable::TooLarge(size));
+    }
+    let min_count = ((item.min_lot / multiple) - 1e-9).ceil().max(1.0) as i64;
+    let tolerance = quantity_tolerance(item);
+    // Cost of receiving k multiples in bucket j (setup, unit, overtime), or
+    // None when capacity forbids it.
+    let order_cost = |j: usize, k: i64| -> Option<f64> {
+        if k == 0 {
+            return Some(0.0);
+        }
+        let r = j - item.lead_time;
+        let q = (k * m) as f64;
+        let mut cost = item.setup_cost[r] + item.unit_cost[r] * q;
+        for routing in &routings {
+            let resource = &scenario.resources[routing.resource];
+            let load = routing.per_unit * q + routing.setup_time;
+            let over = load - resource.capacity[r];
+            if over > 1e-7 * (1.0 + resource.capacity[r]) {
+                if over > resource.overtime_capacity[r] + 1e-7 * (1.0 + resource.capacity[r]) {
+                    return None;
+                }
+                cost += over * resource.overtime_cost;
+            }
+        }
+        Some(cost)
+    };
+    let index = |stock: i64| (stock - bottom) as usize;
+    let mut value = vec![f64::INFINITY; levels];
+    let start = item.initial_stock as i64;
+    if start > top {
+        return Err(NotApplicable::TooLarge(f64::INFINITY));
+    }
+    value[index(start)] = 0.0;
+    let mut choice: Vec<Vec<i32>> = Vec::with_capacity(periods);
+    for t in 0..periods {
+        let mut next = vec![f64::INFINITY; levels];
+        let mut picked = vec![-1i32; levels];
+        let floor = item.stock_floor(t);
+        let last = t + 1 == periods;
+        let lowest = if item.allows_backlog() && !last {
+            bottom
+        } else {
+            (floor - tolerance).ceil() as i64
+        };
+        let flow = (item.receipts[t] - item.demand[t]) as i64;
+        let counts: Vec<(i64, f64)> = if t < item.lead_time || most[t] < 0 {
+            vec![(0, 0.0)]
+        } else {
+            std::iter::once(0)
+                .chain(min_count..=most[t])
+                .filter_map(|k| order_cost(t, k).map(|c| (k, c)))
+                .collect()
+        };
+        for (s_index, &v) in value.iter().enumerate() {
+            if !v.is_finite() {
+                continue;
+            }
+            let stock = s_index as i64 + bottom;
+            for &(k, cost) in &counts {
+                let after = stock + flow + k * m;
+                if after < lowest || after > top {
+                    continue;
+                }
+                let on_hand = after as f64;
+                let keep = if on_hand >= 0.0 {
+                    item.holding_cost[t] * on_hand
+                } else {
+                    item.backlog_cost.unwrap_or(0.0) * -on_hand
+                };
+                let total = v + cost + keep;
+                let slot = index(after);
+                if total < next[slot] {
+                    next[slot] = total;
+                    picked[slot] = k as i32;
+                }
+            }
+        }
+        value = next;
+        choice.push(picked);
+    }
+    let Some((mut slot, best)) = value
+        .iter()
+        .copied()
+        .enumerate()
+        .filter(|(_, v)| v.is_finite())
+        .min_by(|a, b| a.1.total_cmp(&b.1))
+    else {
+        return Ok(None);
+    };
+    let mut receipts = vec![0.0; periods];
+    for t in (0..periods).rev() {
+        let k = choice[t][slot] as i64;
+        receipts[t] = (k * m) as f64;
+        let after = slot as i64 + bottom;
+        let before = after - (item.receipts[t] - item.demand[t]) as i64 - k * m;
+        slot = index(before);
+    }
+    Ok(Some((receipts, best)))
+}

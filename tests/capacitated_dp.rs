@@ -1,0 +1,116 @@
+//! The capacitated single-item dynamic program over stock levels against
+//! the MILP on HiGHS and against the one evaluation of its plans.
+
+use lotwright::capacity::milp::{self, MilpOptions, MilpStatus};
+use lotwright::capacity::single_dp;
+use lotwright::eval::evaluate;
+use lotwright::model::{BucketKind, Calendar, Item, Plan, Resource, Routing, Scenario};
+use proptest::prelude::*;
+
+#[allow(clippy::too_many_arguments)]
+fn scenario(
+    demand: Vec<f64>,
+    setup: f64,
+    holding: f64,
+    multiple: f64,
+    min_lot: f64,
+    max_lot: Option<f64>,
+    backlog: Option<f64>,
+    capacity: f64,
+    overtime: f64,
+    setup_time: f64,
+    initial: f64,
+) -> Scenario {
+    let periods = demand.len();
+    let item = Item {
+        id: "A".into(),
+        setup_cost: vec![setup; periods],
+        nominal_setup_cost: setup,
+        nominal_holding_cost: holding,
+        holding_cost: vec![holding; periods],
+        unit_cost: (0..periods).map(|t| (t % 3) as f64).collect(),
+        initial_stock: initial,
+        safety_stock: 0.0,
+        lead_time: 0,
+        min_lot,
+        lot_multiple: Some(multiple),
+        max_lot,
+        backlog_cost: backlog,
+        fixed_lot: None,
+        ending_stock: 0.0,
+        demand,
+        receipts: vec![0.0; periods],
+    };
+    Scenario {
+        name: "t".into(),
+        currency: None,
+        calendar: Calendar {
+            start: chrono::NaiveDate::from_ymd_opt(2027, 1, 4).unwrap(),
+            kind: BucketKind::Week,
+            periods,
+        },
+        items: vec![item],
+        resources: vec![Resource {
+            id: "R".into(),
+            capacity: vec![capacity; periods],
+            overtime_capacity: vec![overtime; periods],
+            overtime_cost: 3.0,
+        }],
+        routings: vec![Routing {
+            item: 0,
+            resource: 0,
+            per_unit: 1.0,
+            setup_time,
+        }],
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 80, ..ProptestConfig::default() })]
+
+    /// Whole quantities with capacity, overtime, setup time, lot rules and
+    /// backlog: the program and the MILP prove the same least cost, and the
+    /// program's plan costs what the evaluation says.
+    #[test]
+    fn the_program_over_stock_levels_equals_the_milp(
+        demand in prop::collection::vec(0u32..12, 2..7),
+        setup in 0u32..60,
+        holding in 1u32..4,
+        multiple in prop::sample::select(vec![1.0, 2.0, 5.0]),
+        min_lot in prop::sample::select(vec![0.0, 4.0]),
+        max_lot in prop::option::of(10u32..20),
+        backlog in prop::option::of(1u32..6),
+        capacity in 6u32..20,
+        overtime in 0u32..6,
+        setup_time in 0u32..3,
+        initial in 0u32..6,
+    ) {
+        let s = scenario(
+            demand.iter().map(|&d| d as f64).collect(),
+            setup as f64, holding as f64 * 0.5, multiple, min_lot,
+            max_lot.map(|m| m as f64), backlog.map(|b| b as f64),
+            capacity as f64, overtime as f64, setup_time as f64, initial as f64,
+        );
+        let dp = single_dp::solve(&s, 0).expect("whole data within the bound");
+        let options = MilpOptions { threads: Some(1), ..MilpOptions::default() };
+        let result = milp::solve(&s, &[0], &options);
+        match dp {
+            None => prop_assert_eq!(result.status, MilpStatus::Infeasible),
+            Some((receipts, cost)) => {
+                prop_assert_eq!(result.status, MilpStatus::Optimal);
+                prop_assert!((cost - result.objective).abs() <= 1e-6 * (1.0 + cost.abs()),
+                    "dp {} milp {}", cost, result.objective);
+                let evaluation = evaluate(&s, &Plan { receipts: vec![receipts] });
+                prop_assert!(evaluation.feasible, "{:?} {:?}", evaluation.violations, evaluation.overloads);
+                prop_assert!((evaluation.total_cost() - cost).abs() <= 1e-6 * (1.0 + cost.abs()));
+            }
+        }
+    }
+}
+
+#[test]
+fn continuous_quantities_are_left_to_the_milp() {
+    let mut s = scenario(vec![3.0, 4.0], 10.0, 1.0, 1.0, 0.0, None, None, 10.0, 0.0, 0.0, 0.0);
+    s.items[0].lot_multiple = None;
+    assert_eq!(single_dp::solve(&s, 0), Err(single_dp::NotApplicable::NotWhole));
+}
