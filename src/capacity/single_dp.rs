@@ -38,6 +38,7 @@ fn whole(x: f64) -> bool {
 }
 
 /// Solves item `i` of `scenario` (which uses resources no other item uses).
+#[allow(clippy::needless_range_loop)]
 pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
     let item = &scenario.items[i];
     let periods = item.periods();
