@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Installs what a fresh Debian machine with only Rust and gcc lacks: cmake,
-# libclang and a C++ compiler, which building HiGHS needs. Does nothing when
-# they are already there.
+# libclang and a C++ compiler, which building HiGHS needs, and Chromium with
+# a font, which the browser test of report.html runs headless. Does nothing
+# when they are already there.
 set -euo pipefail
 
 need=()
@@ -10,6 +11,8 @@ command -v g++ >/dev/null 2>&1 || need+=(g++)
 if ! ls /usr/lib/llvm-*/lib/libclang*.so* >/dev/null 2>&1 && ! ls /usr/lib/x86_64-linux-gnu/libclang*.so* >/dev/null 2>&1; then
   need+=(libclang-dev)
 fi
+command -v chromium >/dev/null 2>&1 || need+=(chromium)
+[ -e /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf ] || need+=(fonts-dejavu-core)
 
 if [ ${#need[@]} -gt 0 ]; then
   echo "setup: installing ${need[*]}"

@@ -1,6 +1,7 @@
-//! The command line: clap definitions, the three commands, exit codes. This
+//! The command line: clap definitions, the commands, exit codes. This
 //! is the only code that prints or exits.
 
+mod init;
 mod output;
 
 use std::io::Write;
@@ -33,6 +34,14 @@ enum Command {
     Check(CheckArgs),
     /// The classic economic order quantity and its variants.
     Eoq(EoqArgs),
+    /// Write a small, explained starter scenario into a new or empty folder.
+    Init(InitArgs),
+}
+
+#[derive(Args)]
+struct InitArgs {
+    /// The folder to create (it may exist if it is empty).
+    dir: PathBuf,
 }
 
 #[derive(Args)]
@@ -46,8 +55,9 @@ struct PlanArgs {
     /// Print one JSON object on stdout instead of tables.
     #[arg(long)]
     json: bool,
-    /// Write plan.csv and comparison.csv into this folder (created whole,
-    /// or not at all).
+    /// Write the plan files into this folder (created whole, or not at
+    /// all): plan.csv, comparison.csv, records.csv, load.csv, plan.xlsx and
+    /// report.html.
     #[arg(long, value_name = "DIR")]
     out: Option<PathBuf>,
     /// Replace an existing output folder.
@@ -172,6 +182,7 @@ pub fn run() -> i32 {
         Command::Plan(args) => plan(args),
         Command::Check(args) => check(args),
         Command::Eoq(args) => eoq_command(args),
+        Command::Init(args) => init_command(args),
     };
     match result {
         Ok(code) => code,
@@ -231,6 +242,13 @@ fn plan(args: PlanArgs) -> Result<i32> {
                 "comparison.csv",
                 report::csv::comparison(&scenario, &outcome),
             ),
+            ("records.csv", report::csv::records(&scenario, &outcome)),
+            ("load.csv", report::csv::load(&scenario, &outcome)),
+            ("plan.xlsx", report::xlsx::plan(&scenario, &outcome)?),
+            (
+                "report.html",
+                report::html::plan(&scenario, &outcome).into_bytes(),
+            ),
         ])?;
     }
     if args.json {
@@ -269,6 +287,17 @@ fn check(args: CheckArgs) -> Result<i32> {
     } else {
         0
     })
+}
+
+fn init_command(args: InitArgs) -> Result<i32> {
+    init::write(&args.dir)?;
+    emit(&format!(
+        "Wrote a starter scenario into {} ({} files; README.txt explains them). Try: lotwright plan {}\n",
+        args.dir.display(),
+        init::FILES.len(),
+        args.dir.display()
+    ))?;
+    Ok(0)
 }
 
 fn eoq_command(args: EoqArgs) -> Result<i32> {

@@ -1,5 +1,6 @@
 //! CSV files written by `plan --out`: plan.csv (which `check` reads back as
-//! it is) and comparison.csv.
+//! it is), comparison.csv, and the bucket tables records.csv (item x bucket)
+//! and load.csv (resource x bucket).
 
 use super::clean;
 use crate::model::Scenario;
@@ -93,6 +94,92 @@ pub fn comparison(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
             number(e.ending_stock_value()),
             r.lower_bound.map(number).unwrap_or_default(),
         ]);
+    }
+    write_rows(rows)
+}
+
+/// records.csv: the bucket record of every item under the chosen plan, one
+/// row per item and bucket. `on_hand` is end-of-bucket stock (negative is
+/// backlog or shortage); `shortage` is the evaluation's shortage (items
+/// without backlog), `backlog` the units owed by an item that allows it.
+pub fn records(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
+    let header = [
+        "item",
+        "period",
+        "date",
+        "gross_requirement",
+        "scheduled_receipts",
+        "planned_receipts",
+        "planned_releases",
+        "on_hand",
+        "shortage",
+        "backlog",
+    ];
+    let evaluation = &outcome.chosen.evaluation;
+    let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
+    for (item, record) in scenario.items.iter().zip(&evaluation.items) {
+        for t in 0..scenario.periods() {
+            let shortage: f64 = evaluation
+                .shortages
+                .iter()
+                .filter(|s| s.item == item.id && s.period == t + 1)
+                .map(|s| s.quantity)
+                .sum();
+            let backlog = if item.allows_backlog() {
+                (-record.on_hand[t]).max(0.0)
+            } else {
+                0.0
+            };
+            rows.push(vec![
+                item.id.clone(),
+                (t + 1).to_string(),
+                scenario.calendar.label(t),
+                number(record.gross_requirement[t]),
+                number(record.scheduled_receipts[t]),
+                number(record.planned_receipts[t]),
+                number(record.planned_releases[t]),
+                number(record.on_hand[t]),
+                number(shortage),
+                number(backlog),
+            ]);
+        }
+    }
+    write_rows(rows)
+}
+
+/// load.csv: the load of every resource under the chosen plan, one row per
+/// resource and release bucket; `load` is production plus setup time.
+pub fn load(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
+    let header = [
+        "resource",
+        "period",
+        "date",
+        "production",
+        "setup_time",
+        "load",
+        "capacity",
+        "overtime_capacity",
+        "overtime",
+    ];
+    let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
+    for (resource, load) in scenario
+        .resources
+        .iter()
+        .zip(&outcome.chosen.evaluation.resources)
+    {
+        for t in 0..scenario.periods() {
+            rows.push(vec![
+                resource.id.clone(),
+                (t + 1).to_string(),
+                scenario.calendar.label(t),
+                number(load.production[t]),
+                number(load.setup_time[t]),
+                number(load.load(t)),
+                number(load.capacity[t]),
+                number(load.overtime_capacity[t]),
+                number(load.overtime[t]),
+            ]);
+        }
     }
     write_rows(rows)
 }

@@ -1,10 +1,15 @@
 //! Renderers: pure functions from results to text or bytes. They format;
 //! they never compute costs or feasibility (that is `eval`'s job).
 
+mod charts;
 pub mod csv;
 pub mod eoq;
+pub mod figures;
+pub mod html;
 pub mod json;
+mod svg;
 pub mod table;
+pub mod xlsx;
 
 /// A quantity as a planner reads it: whole numbers without decimals, others
 /// with up to three.

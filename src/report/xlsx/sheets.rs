@@ -1,0 +1,357 @@
+//! The five sheets of plan.xlsx, each built from the outcome: Summary,
+//! Orders, Stock records, Capacity and Comparison.
+
+use rust_xlsxwriter::{Worksheet, XlsxError};
+
+use super::{in_currency, table, table_sheet, write_cell, yes_no, Cell, Formats};
+use crate::model::Scenario;
+use crate::report::figures;
+use crate::solve::{cautions, Outcome};
+
+pub(super) fn summary(
+    scenario: &Scenario,
+    outcome: &Outcome,
+    f: &Formats,
+) -> std::result::Result<Worksheet, XlsxError> {
+    let money = in_currency(scenario);
+    let chosen = &outcome.chosen;
+    let evaluation = &chosen.evaluation;
+    let calendar = &scenario.calendar;
+    let mut sheet = Worksheet::new();
+    sheet.set_name("Summary")?;
+    sheet.write_string_with_format(0, 0, format!("Plan: {}", scenario.name), &f.title)?;
+    let mut lines: Vec<(String, Cell)> = vec![
+        ("Scenario".into(), Cell::Text(scenario.name.clone())),
+        ("First bucket starts".into(), Cell::DateLeft(calendar.start)),
+        (
+            format!("Buckets ({}s)", calendar.kind.name()),
+            Cell::Count(calendar.periods),
+        ),
+        ("Items".into(), Cell::Count(scenario.items.len())),
+        ("Resources".into(), Cell::Count(scenario.resources.len())),
+        ("Method".into(), Cell::Text(chosen.method.to_string())),
+        (
+            "Status".into(),
+            Cell::Text(figures::status_phrase(chosen.status)),
+        ),
+        ("Solver".into(), Cell::Text(chosen.solver())),
+        (
+            format!("Total cost{money}"),
+            Cell::Money(chosen.total_cost()),
+        ),
+    ];
+    if let Some(bound) = chosen.lower_bound {
+        lines.push((format!("Lower bound{money}"), Cell::Money(bound)));
+    }
+    if let Some(gap) = chosen.gap() {
+        lines.push(("Gap to the lower bound".into(), Cell::FinePercent(gap)));
+    }
+    let c = &evaluation.costs;
+    for (kind, value) in [
+        ("Setup cost", c.setup),
+        ("Holding cost", c.holding),
+        ("Unit cost", c.unit),
+        ("Backlog cost", c.backlog),
+        ("Overtime cost", c.overtime),
+    ] {
+        lines.push((format!("{kind}{money}"), Cell::Money(value)));
+    }
+    lines.push(("Setups".into(), Cell::Count(evaluation.setups)));
+    lines.push((
+        format!("Average stock value{money}"),
+        Cell::Money(evaluation.average_stock_value(scenario)),
+    ));
+    lines.push((
+        format!("Ending stock value{money}"),
+        Cell::Money(evaluation.ending_stock_value()),
+    ));
+    if let Some(saving) = figures::saving(outcome) {
+        let reference = saving.reference;
+        lines.push((
+            "Compared with".into(),
+            Cell::Text(format!(
+                "{}{}",
+                reference.method,
+                if saving.reference_is_current_rule {
+                    " (the rule in use)"
+                } else {
+                    " (the cheapest rule)"
+                }
+            )),
+        ));
+        lines.push((
+            format!("Its total cost{money}"),
+            Cell::Money(reference.total_cost()),
+        ));
+        lines.push((
+            "Its plan is feasible".into(),
+            Cell::Text(yes_no(reference.evaluation.feasible).into()),
+        ));
+        lines.push((format!("Saving{money}"), Cell::Money(saving.amount)));
+        if let Some(fraction) = saving.fraction {
+            lines.push(("Saving (share of its cost)".into(), Cell::Percent(fraction)));
+        }
+        lines.push((
+            format!("Its ending stock value{money}"),
+            Cell::Money(reference.evaluation.ending_stock_value()),
+        ));
+        lines.push((
+            format!("Saving with ending stock at its value{money}"),
+            Cell::Money(saving.net_of_ending_stock),
+        ));
+    }
+    let mut row = 2;
+    for (label, cell) in &lines {
+        sheet.write_string_with_format(row, 0, label, &f.label)?;
+        write_cell(&mut sheet, row, 1, cell, f)?;
+        row += 1;
+    }
+    let mut remarks: Vec<String> = outcome
+        .comparison
+        .iter()
+        .flat_map(|r| {
+            r.notes.iter().map(move |n| match r.method {
+                "optimal" => n.clone(),
+                method => format!("{method}: {n}"),
+            })
+        })
+        .collect();
+    remarks.extend(
+        cautions(scenario, chosen)
+            .into_iter()
+            .map(|c| format!("Caution: {c}")),
+    );
+    if !remarks.is_empty() {
+        row += 1;
+        for remark in &remarks {
+            // Long remarks wrap across the summary's width (columns A to
+            // H, about 140 characters) instead of running off the page.
+            sheet.merge_range(row, 0, row, 7, remark, &f.note)?;
+            let lines = remark.chars().count().div_ceil(120).max(1);
+            sheet.set_row_height(row, 15 * lines as u32)?;
+            row += 1;
+        }
+    }
+    row += 1;
+    sheet.write_string_with_format(row, 0, "Items under this plan", &f.label)?;
+    let columns = [
+        ("Item", 30.0),
+        ("Setups", 14.0),
+        (&*format!("Total cost{money}"), 16.0),
+        ("Average stock (units)", 14.0),
+        (
+            &*format!("Cover ({}s of demand)", calendar.kind.name()),
+            14.0,
+        ),
+        ("Ending stock (units)", 14.0),
+        (&*format!("Ending stock value{money}"), 16.0),
+        ("Fill rate", 10.0),
+    ];
+    let rows: Vec<Vec<Cell>> = scenario
+        .items
+        .iter()
+        .zip(&evaluation.items)
+        .map(|(item, record)| {
+            vec![
+                Cell::Text(item.id.clone()),
+                Cell::Count(record.setups),
+                Cell::Money(record.costs.total()),
+                Cell::Quantity((record.average_stock * 10.0).round() / 10.0),
+                figures::cover(record).map_or(Cell::Empty, Cell::Decimal),
+                Cell::Quantity(record.ending_stock),
+                Cell::Money(record.ending_stock_value),
+                Cell::Percent(record.fill_rate),
+            ]
+        })
+        .collect();
+    table(&mut sheet, row + 1, &columns, &rows, f)?;
+    // The labels are long and the first table column holds item ids.
+    sheet.set_column_width(0, 42)?;
+    sheet.set_column_width(1, 22)?;
+    sheet.set_landscape();
+    sheet.set_print_fit_to_pages(1, 0);
+    Ok(sheet)
+}
+
+pub(super) fn orders(
+    scenario: &Scenario,
+    outcome: &Outcome,
+    f: &Formats,
+) -> std::result::Result<Worksheet, XlsxError> {
+    let calendar = &scenario.calendar;
+    let columns = [
+        ("Item", 18.0),
+        ("Receipt period", 10.0),
+        ("Receipt date", 12.0),
+        ("Release period", 10.0),
+        ("Release date", 12.0),
+        ("Quantity (units)", 12.0),
+    ];
+    let rows: Vec<Vec<Cell>> = crate::report::json::order_rows(scenario, &outcome.chosen.plan)
+        .into_iter()
+        .map(|(item, period, _, release, _, quantity)| {
+            vec![
+                Cell::Text(item),
+                Cell::Count(period),
+                Cell::Date(calendar.bucket_start(period - 1)),
+                Cell::Period(release),
+                Cell::Date(calendar.signed_bucket_start(release - 1)),
+                Cell::Quantity(quantity),
+            ]
+        })
+        .collect();
+    table_sheet("Orders", &columns, &rows, 1, f)
+}
+
+pub(super) fn stock_records(
+    scenario: &Scenario,
+    outcome: &Outcome,
+    f: &Formats,
+) -> std::result::Result<Worksheet, XlsxError> {
+    let evaluation = &outcome.chosen.evaluation;
+    let columns = [
+        ("Item", 18.0),
+        ("Period", 8.0),
+        ("Bucket starts", 12.0),
+        ("Gross requirement (units)", 13.0),
+        ("Scheduled receipts (units)", 13.0),
+        ("Planned receipts (units)", 13.0),
+        ("Planned releases (units)", 13.0),
+        ("On hand at end (units)", 13.0),
+        ("Safety stock (units)", 11.0),
+        ("Shortage (units)", 11.0),
+        ("Backlog (units)", 11.0),
+    ];
+    let mut rows = Vec::new();
+    for (item, record) in scenario.items.iter().zip(&evaluation.items) {
+        for t in 0..scenario.periods() {
+            let shortage: f64 = evaluation
+                .shortages
+                .iter()
+                .filter(|s| s.item == item.id && s.period == t + 1)
+                .map(|s| s.quantity)
+                .sum();
+            let backlog = if item.allows_backlog() {
+                (-record.on_hand[t]).max(0.0)
+            } else {
+                0.0
+            };
+            rows.push(vec![
+                Cell::Text(item.id.clone()),
+                Cell::Count(t + 1),
+                Cell::Date(scenario.calendar.bucket_start(t)),
+                Cell::Quantity(record.gross_requirement[t]),
+                Cell::Quantity(record.scheduled_receipts[t]),
+                Cell::Quantity(record.planned_receipts[t]),
+                Cell::Quantity(record.planned_releases[t]),
+                Cell::Quantity(record.on_hand[t]),
+                Cell::Quantity(item.safety_stock),
+                Cell::Quantity(shortage),
+                Cell::Quantity(backlog),
+            ]);
+        }
+    }
+    table_sheet("Stock records", &columns, &rows, 3, f)
+}
+
+pub(super) fn capacity(
+    scenario: &Scenario,
+    outcome: &Outcome,
+    f: &Formats,
+) -> std::result::Result<Worksheet, XlsxError> {
+    let columns = [
+        ("Resource", 16.0),
+        ("Period", 8.0),
+        ("Bucket starts", 12.0),
+        ("Production", 12.0),
+        ("Setup time", 12.0),
+        ("Load (production + setup)", 13.0),
+        ("Regular capacity", 12.0),
+        ("Overtime allowed", 12.0),
+        ("Overtime used", 12.0),
+        ("Utilisation of regular capacity", 14.0),
+        ("Reduced capacity", 10.0),
+    ];
+    let mut rows = Vec::new();
+    for (resource, load) in scenario
+        .resources
+        .iter()
+        .zip(&outcome.chosen.evaluation.resources)
+    {
+        let reduced = figures::reduced_buckets(load);
+        for (t, &is_reduced) in reduced.iter().enumerate() {
+            rows.push(vec![
+                Cell::Text(resource.id.clone()),
+                Cell::Count(t + 1),
+                Cell::Date(scenario.calendar.bucket_start(t)),
+                Cell::Quantity(load.production[t]),
+                Cell::Quantity(load.setup_time[t]),
+                Cell::Quantity(load.load(t)),
+                Cell::Quantity(load.capacity[t]),
+                Cell::Quantity(load.overtime_capacity[t]),
+                Cell::Quantity(load.overtime[t]),
+                figures::utilisation(load, t).map_or(Cell::Empty, Cell::Percent),
+                if is_reduced {
+                    Cell::Flag("yes")
+                } else {
+                    Cell::Empty
+                },
+            ]);
+        }
+    }
+    table_sheet("Capacity", &columns, &rows, 3, f)
+}
+
+pub(super) fn comparison(
+    scenario: &Scenario,
+    outcome: &Outcome,
+    f: &Formats,
+) -> std::result::Result<Worksheet, XlsxError> {
+    let money = in_currency(scenario);
+    let headers = [
+        ("Method".to_string(), 22.0),
+        ("Status".to_string(), 11.0),
+        ("Feasible".to_string(), 9.0),
+        (format!("Total cost{money}"), 14.0),
+        (format!("Setup cost{money}"), 12.0),
+        (format!("Holding cost{money}"), 12.0),
+        (format!("Unit cost{money}"), 14.0),
+        (format!("Backlog cost{money}"), 12.0),
+        (format!("Overtime cost{money}"), 12.0),
+        ("Setups".to_string(), 8.0),
+        ("Average stock (units)".to_string(), 11.0),
+        (format!("Average stock value{money}"), 13.0),
+        ("Ending stock (units)".to_string(), 11.0),
+        (format!("Ending stock value{money}"), 13.0),
+        ("Cost over optimal".to_string(), 10.0),
+        (format!("Lower bound{money}"), 14.0),
+    ];
+    let columns: Vec<(&str, f64)> = headers.iter().map(|(h, w)| (h.as_str(), *w)).collect();
+    let rows: Vec<Vec<Cell>> = outcome
+        .comparison
+        .iter()
+        .map(|r| {
+            let e = &r.evaluation;
+            let c = &e.costs;
+            vec![
+                Cell::Text(r.method.to_string()),
+                Cell::Text(r.status.name().to_string()),
+                Cell::Flag(yes_no(e.feasible)),
+                Cell::Money(c.total()),
+                Cell::Money(c.setup),
+                Cell::Money(c.holding),
+                Cell::Money(c.unit),
+                Cell::Money(c.backlog),
+                Cell::Money(c.overtime),
+                Cell::Count(e.setups),
+                Cell::Quantity((e.average_stock() * 10.0).round() / 10.0),
+                Cell::Money(e.average_stock_value(scenario)),
+                Cell::Quantity(e.items.iter().map(|i| i.ending_stock).sum()),
+                Cell::Money(e.ending_stock_value()),
+                figures::extra_over_optimal(outcome, r).map_or(Cell::Empty, Cell::Percent),
+                r.lower_bound.map_or(Cell::Empty, Cell::Money),
+            ]
+        })
+        .collect();
+    table_sheet("Comparison", &columns, &rows, 1, f)
+}
