@@ -479,7 +479,7 @@ fn explain_item(item: &crate::model::Item) -> String {
             return format!(
                 "item {}: {} units short in period {}, before an order released in period 1 can arrive (lead time {} buckets); add stock or receipts, or allow backlog",
                 item.id,
-                fmt_quantity(-stock),
+                crate::report::quantity(-stock),
                 t + 1,
                 item.lead_time
             );
@@ -489,14 +489,6 @@ fn explain_item(item: &crate::model::Item) -> String {
         "item {}: no plan meets its stock floors (lead time {} buckets)",
         item.id, item.lead_time
     )
-}
-
-fn fmt_quantity(q: f64) -> String {
-    if q.fract() == 0.0 {
-        format!("{q:.0}")
-    } else {
-        format!("{q:.3}")
-    }
 }
 
 /// The cautions a plan calls for: overtime and stock built ahead of need
@@ -512,7 +504,7 @@ pub fn cautions(scenario: &Scenario, result: &MethodResult) -> Vec<String> {
     if overtime > 0.0 {
         cautions.push(format!(
             "The plan uses {} units of overtime capacity. Overtime and shift patterns must respect local labour law and agreements; check with the people who set them.",
-            fmt_quantity(overtime)
+            crate::report::quantity(overtime)
         ));
     }
     let ahead = result

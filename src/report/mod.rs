@@ -14,12 +14,18 @@ pub mod xlsx;
 /// A quantity as a planner reads it: whole numbers without decimals, others
 /// with up to three.
 pub fn quantity(value: f64) -> String {
-    let value = if value.abs() < 5e-10 { 0.0 } else { value };
-    if (value - value.round()).abs() < 1e-9 {
-        format!("{:.0}", value.round())
+    // Solver noise (a millionth of a unit) is not a quantity anyone ordered.
+    let rounded = value.round();
+    if (value - rounded).abs() < 1e-6 {
+        format!("{:.0}", rounded + 0.0)
     } else {
         let text = format!("{value:.3}");
-        text.trim_end_matches('0').trim_end_matches('.').to_string()
+        let text = text.trim_end_matches('0').trim_end_matches('.');
+        if text == "-0" {
+            "0".to_string()
+        } else {
+            text.to_string()
+        }
     }
 }
 
