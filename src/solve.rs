@@ -119,6 +119,37 @@ pub struct Outcome {
 
 /// Plans the scenario with every method (or the one asked for).
 pub fn plan_scenario(scenario: &Scenario, options: &Options) -> crate::error::Result<Outcome> {
+    plan_scenario_with(scenario, options, &Silent)
+}
+
+/// Hears how a long solve goes: the command line shows it on stderr; the
+/// library itself never prints.
+pub trait Progress {
+    /// A group of items that share resources goes to the MILP.
+    fn milp_started(&self, _index: usize, _total: usize, _items: usize) {}
+    /// It came back with this status, cost and gap.
+    fn milp_finished(
+        &self,
+        _index: usize,
+        _total: usize,
+        _status: Status,
+        _cost: f64,
+        _gap: Option<f64>,
+    ) {
+    }
+}
+
+/// No progress to show.
+pub struct Silent;
+
+impl Progress for Silent {}
+
+/// `plan_scenario`, telling `progress` how the MILP goes.
+pub fn plan_scenario_with(
+    scenario: &Scenario,
+    options: &Options,
+    progress: &dyn Progress,
+) -> crate::error::Result<Outcome> {
     if let Some(method) = &options.method {
         if !METHOD_NAMES.contains(&method.as_str()) {
             return Err(crate::error::Error::usage(format!(
@@ -135,7 +166,7 @@ pub fn plan_scenario(scenario: &Scenario, options: &Options) -> crate::error::Re
     let wanted = |name: &str| options.method.as_deref().is_none_or(|m| m == name);
     let mut comparison = Vec::new();
     if wanted("optimal") {
-        comparison.push(solve_exact(scenario, &options.milp));
+        comparison.push(solve_exact_with(scenario, &options.milp, progress));
     }
     for rule in Rule::ALL {
         if rule == Rule::FixedLot && !has_fixed_lot(scenario) {
@@ -200,13 +231,25 @@ pub fn run_rule(scenario: &Scenario, rule: Rule) -> MethodResult {
 /// per group of items that share resources, the MILP. Lot constraints and
 /// capacity are honoured, or the result says it is not proven.
 pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
+    solve_exact_with(scenario, options, &Silent)
+}
+
+/// `solve_exact`, telling `progress` how the MILP goes.
+pub fn solve_exact_with(
+    scenario: &Scenario,
+    options: &MilpOptions,
+    progress: &dyn Progress,
+) -> MethodResult {
     let periods = scenario.periods();
+    let groups = capacity::components(scenario);
+    let milp_total = groups.iter().filter(|g| g.items.len() > 1).count();
+    let mut milp_index = 0;
     let started = std::time::Instant::now();
     let mut plan = Plan::empty(scenario.items.len(), periods);
     let mut lower_bound = 0.0;
     let mut notes = Vec::new();
     let mut components = Vec::new();
-    for group in capacity::components(scenario) {
+    for group in groups {
         let mut component = Component {
             items: group
                 .items
@@ -291,8 +334,20 @@ pub fn solve_exact(scenario: &Scenario, options: &MilpOptions) -> MethodResult {
                 &mut notes,
             );
         } else {
+            milp_index += 1;
+            progress.milp_started(milp_index, milp_total, group.items.len());
             let result =
                 capacity::milp::solve(scenario, &group.items, &remaining(options, started));
+            let gap = (result.objective.abs() > 1e-9).then(|| {
+                ((result.objective - result.lower_bound) / result.objective.abs()).max(0.0)
+            });
+            let status = match result.status {
+                capacity::milp::MilpStatus::Optimal => Status::Optimal,
+                capacity::milp::MilpStatus::Feasible => Status::Feasible,
+                capacity::milp::MilpStatus::Infeasible => Status::Infeasible,
+                capacity::milp::MilpStatus::NoPlan => Status::Unknown,
+            };
+            progress.milp_finished(milp_index, milp_total, status, result.objective, gap);
             component.solver = "milp";
             take_milp(
                 scenario,

@@ -3,6 +3,7 @@
 
 mod init;
 mod output;
+mod progress;
 
 use std::io::Write;
 use std::path::PathBuf;
@@ -234,7 +235,10 @@ fn plan(args: PlanArgs) -> Result<i32> {
         method: args.method.clone(),
         milp,
     };
-    let outcome = solve::plan_scenario(&scenario, &options)?;
+    let spinner = progress::Spinner::new(!args.json);
+    let outcome = solve::plan_scenario_with(&scenario, &options, &spinner);
+    spinner.finish();
+    let outcome = outcome?;
     if let Some(target) = target {
         target.write(&[
             ("plan.csv", report::csv::plan(&scenario, &outcome)),
