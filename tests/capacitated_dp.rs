@@ -110,7 +110,22 @@ proptest! {
 
 #[test]
 fn continuous_quantities_are_left_to_the_milp() {
-    let mut s = scenario(vec![3.0, 4.0], 10.0, 1.0, 1.0, 0.0, None, None, 10.0, 0.0, 0.0, 0.0);
+    let mut s = scenario(
+        vec![3.0, 4.0],
+        10.0,
+        1.0,
+        1.0,
+        0.0,
+        None,
+        None,
+        10.0,
+        0.0,
+        0.0,
+        0.0,
+    );
     s.items[0].lot_multiple = None;
-    assert_eq!(single_dp::solve(&s, 0), Err(single_dp::NotApplicable::NotWhole));
+    assert_eq!(
+        single_dp::solve(&s, 0),
+        Err(single_dp::NotApplicable::NotWhole)
+    );
 }
