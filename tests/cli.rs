@@ -474,3 +474,41 @@ fn backlog_item_plans_with_safety_stock_as_a_target_only() {
         .all(|v| v["kind"] == "safety-stock" && v["binding"] == false));
     assert_eq!(value["comparison"][0]["feasible"], true);
 }
+
+#[test]
+fn terminal_output_fits_100_columns_with_many_items() {
+    // 80 items over 26 weeks, half without a fixed lot (a long note), a
+    // lead time and safety stock (breaches in the records).
+    let mut items = String::from("item,setup_cost,holding_cost,safety_stock,lead_time,fixed_lot\n");
+    let mut demand = String::from("item,period,quantity\n");
+    for i in 0..80 {
+        let fixed = if i % 2 == 0 { "300" } else { "" };
+        items.push_str(&format!(
+            "LONG-ITEM-NAME-{i:03},{},0.5,5,{},{fixed}\n",
+            50 + i,
+            i % 2
+        ));
+        for t in 2..=26 {
+            demand.push_str(&format!(
+                "LONG-ITEM-NAME-{i:03},{t},{}\n",
+                10 + (i * t) % 37
+            ));
+        }
+    }
+    let toml = weekly_toml(26);
+    let dir = scenario_dir(&[
+        ("scenario.toml", toml.as_str()),
+        ("items.csv", &items),
+        ("demand.csv", &demand),
+    ]);
+    for extra in [&[][..], &["--detail"][..], &["--method", "silver-meal"][..]] {
+        let mut args = vec!["plan", path(dir.path())];
+        args.extend_from_slice(extra);
+        let output = lotwright(&args);
+        assert_eq!(output.status.code(), Some(0), "{}", stderr(&output));
+        let text = stdout(&output);
+        let widest = text.lines().map(|l| l.chars().count()).max().unwrap_or(0);
+        assert!(widest <= 100, "{extra:?}: a line of {widest} columns");
+        assert!(text.contains("Cost by method"));
+    }
+}

@@ -23,6 +23,28 @@ pub const WIDTH: usize = 100;
 /// Items up to which the records are shown without `--detail`.
 const FEW_ITEMS: usize = 3;
 
+/// Writes `text` in lines of at most `WIDTH` columns, each starting with
+/// `indent` (continuation lines two spaces further in).
+fn wrap(text: &str, indent: &str, out: &mut String) {
+    let mut line = String::from(indent);
+    let mut fresh = true;
+    for word in text.split_whitespace() {
+        if !fresh && line.chars().count() + 1 + word.chars().count() > WIDTH {
+            out.push_str(&line);
+            out.push('\n');
+            line = format!("{indent}  ");
+            fresh = true;
+        }
+        if !fresh {
+            line.push(' ');
+        }
+        line.push_str(word);
+        fresh = false;
+    }
+    out.push_str(&line);
+    out.push('\n');
+}
+
 /// A simple text table: columns of numbers right-aligned, text left-aligned.
 struct Grid {
     rows: Vec<Vec<String>>,
@@ -135,11 +157,11 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
         money(chosen.total_cost())
     );
     for note in &chosen.notes {
-        let _ = writeln!(out, "  Note: {note}");
+        wrap(&format!("Note: {note}"), "  ", &mut out);
     }
     comparison(scenario, outcome, &mut out);
     faults(&chosen.evaluation, &mut out);
-    orders(scenario, chosen, &mut out);
+    orders(scenario, chosen, detail, &mut out);
     let few = scenario.items.len() <= FEW_ITEMS;
     let mut shown = 0;
     for (i, item) in scenario.items.iter().enumerate() {
@@ -156,7 +178,8 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
         );
     }
     for caution in cautions(scenario, chosen) {
-        let _ = writeln!(out, "\nCaution: {caution}");
+        out.push('\n');
+        wrap(&format!("Caution: {caution}"), "", &mut out);
     }
     out
 }
@@ -229,7 +252,7 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
     for r in rows {
         if r.method != "optimal" {
             for note in &r.notes {
-                let _ = writeln!(out, "  {}: {note}", r.method);
+                wrap(&format!("{}: {note}", r.method), "  ", out);
             }
         }
     }
@@ -293,7 +316,10 @@ fn faults(evaluation: &Evaluation, out: &mut String) {
     }
 }
 
-fn orders(scenario: &Scenario, result: &MethodResult, out: &mut String) {
+/// Orders shown without `--detail` before the list is cut short.
+const FEW_ORDERS: usize = 60;
+
+fn orders(scenario: &Scenario, result: &MethodResult, detail: &Detail, out: &mut String) {
     let _ = writeln!(out, "\nPlanned orders ({})", result.method);
     let mut grid = Grid::new(&[
         "item",
@@ -308,7 +334,16 @@ fn orders(scenario: &Scenario, result: &MethodResult, out: &mut String) {
         let _ = writeln!(out, "  none: stock and open orders cover the horizon");
         return;
     }
-    for (item, period, date, release, release_date, q) in rows {
+    let total = rows.len();
+    let chosen = |item: &String| detail.items.is_empty() || detail.items.contains(item);
+    let rows: Vec<_> = rows.into_iter().filter(|r| chosen(&r.0)).collect();
+    let shown = if detail.all || !detail.items.is_empty() {
+        rows.len()
+    } else {
+        rows.len().min(FEW_ORDERS)
+    };
+    let hidden = rows.len() - shown;
+    for (item, period, date, release, release_date, q) in rows.into_iter().take(shown) {
         grid.push(vec![
             item,
             period.to_string(),
@@ -319,7 +354,17 @@ fn orders(scenario: &Scenario, result: &MethodResult, out: &mut String) {
         ]);
     }
     grid.render(out);
+    if hidden > 0 {
+        wrap(
+            &format!("... and {hidden} more of {total} orders: add --detail to list them all, --item ID for one item, or --out DIR for plan.csv"),
+            "  ",
+            out,
+        );
+    }
 }
+
+/// Items listed in the summary before it is cut short.
+const FEW_SUMMARY: usize = 50;
 
 fn item_summary(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
     let _ = writeln!(out, "\nItems");
@@ -331,7 +376,12 @@ fn item_summary(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) 
         "end stock",
         "fill rate",
     ]);
-    for (item, record) in scenario.items.iter().zip(&evaluation.items) {
+    for (item, record) in scenario
+        .items
+        .iter()
+        .zip(&evaluation.items)
+        .take(FEW_SUMMARY)
+    {
         grid.push(vec![
             item.id.clone(),
             record.setups.to_string(),
@@ -342,6 +392,14 @@ fn item_summary(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) 
         ]);
     }
     grid.render(out);
+    let hidden = scenario.items.len().saturating_sub(FEW_SUMMARY);
+    if hidden > 0 {
+        wrap(
+            &format!("... and {hidden} more items: --out DIR writes records.csv, plan.xlsx and report.html with all of them"),
+            "  ",
+            out,
+        );
+    }
 }
 
 /// The bucket-by-bucket record of one item, in chunks that fit the width.
