@@ -166,8 +166,11 @@ impl Evaluation {
 /// A tolerance for comparing quantities of one item: rounding noise from
 /// solvers must not count as a shortage.
 pub fn quantity_tolerance(item: &Item) -> f64 {
+    // Relative to the item's size, so that float noise in sums of large
+    // quantities is not a shortage, yet small enough (a billionth) that no
+    // real shortage hides behind it.
     let scale: f64 = item.demand.iter().sum::<f64>() + item.initial_stock + item.ending_stock;
-    1e-6 * (1.0 + scale.abs()).clamp(1.0, 1e9)
+    1e-6 + 1e-9 * scale.abs().min(1e12)
 }
 
 fn is_multiple(quantity: f64, multiple: f64, tolerance: f64) -> bool {

@@ -362,6 +362,16 @@ pub fn solve_exact_with(
         }
         components.push(component);
     }
+    for item in &scenario.items {
+        if item.ending_stock > 0.0 && item.lead_time >= periods {
+            notes.push(format!(
+                "item {}: its ending-stock target of {} cannot be met by any order: with a lead time of {} buckets nothing released in the horizon arrives before it ends",
+                item.id,
+                crate::report::quantity(item.ending_stock),
+                item.lead_time
+            ));
+        }
+    }
     let evaluation = evaluate(scenario, &plan);
     let worst = |s: Status| components.iter().any(|c| c.status == s);
     let status = if worst(Status::Infeasible) {

@@ -227,8 +227,17 @@ impl<'a> Cell<'a> {
 }
 
 fn not_a_number(text: &str) -> String {
+    if let Some(c) = text.chars().find(|c| c.is_control()) {
+        return format!(
+            "{} holds an invisible control character (U+{:04X}); remove it, or export the file again as plain CSV",
+            text.escape_debug(),
+            c as u32
+        );
+    }
     if chrono::NaiveDate::parse_from_str(text, "%Y-%m-%d").is_ok() {
-        return format!("{text} is a date, not a number; give dates in a date column instead of period");
+        return format!(
+            "{text} is a date, not a number; give dates in a date column instead of period"
+        );
     }
     let digits_then_text = text
         .trim_start_matches(|c: char| c.is_ascii_digit() || c == '.' || c == '-')
@@ -270,6 +279,12 @@ fn check_header(path: &Path, header: &Record, schema: &Schema) -> Result<Vec<Str
         return Err(Error::input(
             Location::line(path, header.line),
             "the file looks semicolon-delimited; lotwright reads comma-separated files: export with commas as the delimiter",
+        ));
+    }
+    if columns.len() == 1 && columns[0].contains('\t') {
+        return Err(Error::input(
+            Location::line(path, header.line),
+            "the file looks tab-delimited; lotwright reads comma-separated files: export with commas as the delimiter",
         ));
     }
     for (i, name) in columns.iter().enumerate() {

@@ -140,8 +140,8 @@ pub fn bucket_of(file: &CsvFile, record: &Record, calendar: &Calendar) -> Result
                     calendar.start
                 ))),
                 DatePlace::After => Err(cell.error(format!(
-                    "{date} is after the horizon, whose last bucket ends before {}; drop the row, or raise `periods` in scenario.toml",
-                    calendar.end()
+                    "{date} is after the horizon, whose last bucket ends on {}; drop the row, or raise `periods` in scenario.toml",
+                    calendar.end().pred_opt().unwrap_or(calendar.end())
                 ))),
             }
         }
@@ -310,17 +310,44 @@ fn read_quantities(
     let Some(file) = CsvFile::open(dir, name, &DEMAND, required)? else {
         return Ok(());
     };
+    needs_bucket_column(&file, name)?;
+    for record in &file.records {
+        let item = item_of(&file, record, index)?;
+        let t = bucket_of(&file, record, calendar)?;
+        let quantity = file.required(record, "quantity")?.non_negative()?;
+        add(item, t, quantity);
+    }
+    Ok(())
+}
+
+/// Files whose rows belong to a bucket need a `period` or a `date` column.
+fn needs_bucket_column(file: &CsvFile, name: &str) -> Result<()> {
     if !file.has_column("period") && !file.has_column("date") {
         return Err(Error::input(
             Location::line(&file.path, 1),
             format!("{name} needs a period column or a date column"),
         ));
     }
-    for record in &file.records {
-        let item = item_of(&file, record, index)?;
-        let t = bucket_of(&file, record, calendar)?;
-        let quantity = file.required(record, "quantity")?.non_negative()?;
-        add(item, t, quantity);
+    Ok(())
+}
+
+/// An override file gives one row per id and bucket; a second row would
+/// silently replace the first, so it is refused.
+fn refuse_second_override(
+    seen: &mut HashMap<(usize, usize), u64>,
+    file: &CsvFile,
+    record: &Record,
+    key: (usize, usize),
+    what: &str,
+) -> Result<()> {
+    if let Some(first) = seen.insert(key, record.line) {
+        return Err(Error::input(
+            file.row_location(record),
+            format!(
+                "{what} already has a row for period {} on line {first}; put the changes of one bucket on one row",
+                key.1 + 1
+            ),
+        ));
     }
     Ok(())
 }
@@ -345,9 +372,13 @@ fn read_cost_overrides(
     let Some(file) = CsvFile::open(dir, "costs.csv", &COSTS, false)? else {
         return Ok(());
     };
+    needs_bucket_column(&file, "costs.csv")?;
+    let mut seen = HashMap::new();
     for record in &file.records {
         let i = item_of(&file, record, index)?;
         let t = bucket_of(&file, record, calendar)?;
+        let what = format!("item {}", items[i].id);
+        refuse_second_override(&mut seen, &file, record, (i, t), &what)?;
         let item = &mut items[i];
         if let Some(cell) = file.cell(record, "setup_cost") {
             item.setup_cost[t] = cell.non_negative()?;
@@ -414,9 +445,13 @@ fn read_capacity(dir: &Path, calendar: &Calendar, resources: &mut [Resource]) ->
     let Some(file) = CsvFile::open(dir, "capacity.csv", &CAPACITY, false)? else {
         return Ok(());
     };
+    needs_bucket_column(&file, "capacity.csv")?;
+    let mut seen = HashMap::new();
     for record in &file.records {
         let r = resource_of(&file, record, resources)?;
         let t = bucket_of(&file, record, calendar)?;
+        let what = format!("resource {}", resources[r].id);
+        refuse_second_override(&mut seen, &file, record, (r, t), &what)?;
         if let Some(cell) = file.cell(record, "capacity") {
             resources[r].capacity[t] = cell.non_negative()?;
         }

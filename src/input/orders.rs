@@ -23,8 +23,14 @@ const ORDERS: Schema = Schema {
 
 /// Reads the orders file at `path` into a plan for `scenario`.
 pub fn read_orders(path: &Path, scenario: &Scenario) -> Result<Plan> {
-    let bytes = std::fs::read(path)
-        .map_err(|e| Error::input(Location::file(path), format!("cannot read the file: {e}")))?;
+    let bytes = std::fs::read(path).map_err(|e| {
+        let message = if e.kind() == std::io::ErrorKind::NotFound {
+            "the orders file is missing; check the path given to --orders".to_string()
+        } else {
+            format!("cannot read the file: {e}")
+        };
+        Error::input(Location::file(path), message)
+    })?;
     let file = CsvFile::parse(path, &bytes, &ORDERS)?;
     if !file.has_column("period") && !file.has_column("date") {
         return Err(Error::input(
