@@ -24,7 +24,7 @@ struct Args {
     items: usize,
     #[arg(long, default_value_t = 52)]
     periods: usize,
-    /// Resources shared by all items (0: no capacity files).
+    /// Resources (0: no capacity files); each item runs on one, round robin.
     #[arg(long, default_value_t = 0)]
     resources: usize,
     /// Average load over capacity, e.g. 0.85.

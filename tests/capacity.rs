@@ -118,3 +118,35 @@ fn a_shortfall_the_cumulative_test_misses_is_found_by_the_extra_capacity_model()
     assert!(notes.contains("least extra capacity"), "{notes}");
     assert!(notes.contains("5 in period"), "{notes}");
 }
+
+#[test]
+fn the_least_extra_capacity_is_the_least() {
+    // 12 units due in week 2, 10 of capacity a week, a setup takes 5. One
+    // lot needs 17 in week 2 (7 short); lots of 5 in week 1 and 7 in week 2
+    // need 10 and 12 (2 short): the least extra capacity is 2.
+    let dir = tempfile::tempdir().unwrap();
+    write(
+        dir.path(),
+        &[
+            (
+                "scenario.toml",
+                "name = \"setup\"\nstart = \"2027-01-04\"\nbucket = \"week\"\nperiods = 2\n",
+            ),
+            ("items.csv", "item,setup_cost,holding_cost\nA,50,1\n"),
+            ("demand.csv", "item,period,quantity\nA,2,12\n"),
+            ("resources.csv", "resource,capacity\nL,10\n"),
+            (
+                "routing.csv",
+                "item,resource,per_unit,setup_time\nA,L,1,5\n",
+            ),
+        ],
+    );
+    let (code, stdout, _) = lotwright(&["plan", dir.path().to_str().unwrap(), "--json"]);
+    assert_eq!(code, 1, "{stdout}");
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    let notes = json["notes"].to_string();
+    assert!(
+        notes.contains("least extra capacity that makes a plan possible is 2 in period"),
+        "{notes}"
+    );
+}

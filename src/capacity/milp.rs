@@ -214,9 +214,13 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
         .enumerate()
         .map(|(k, (v, _))| (v, k))
         .collect();
-    let mut problem = vars
-        .minimise(objective)
-        .using(good_lp::solvers::highs::highs);
+    // In extra-capacity mode only the capacity added counts.
+    let goal = if options.extra_capacity {
+        slack_total
+    } else {
+        objective
+    };
+    let mut problem = vars.minimise(goal).using(good_lp::solvers::highs::highs);
     for c in constraints {
         problem.add_constraint(c);
     }

@@ -54,16 +54,13 @@ pub fn components(scenario: &Scenario) -> Vec<Group> {
         }
         groups[slot[r]].items.push(i);
     }
+    for routing in &scenario.routings {
+        let r = root(&mut parent, routing.item);
+        groups[slot[r]].resources.push(routing.resource);
+    }
     for group in &mut groups {
-        let mut resources: Vec<usize> = scenario
-            .routings
-            .iter()
-            .filter(|x| group.items.contains(&x.item))
-            .map(|x| x.resource)
-            .collect();
-        resources.sort_unstable();
-        resources.dedup();
-        group.resources = resources;
+        group.resources.sort_unstable();
+        group.resources.dedup();
     }
     groups
 }
@@ -141,6 +138,12 @@ pub fn explain_capacity(scenario: &Scenario, group: &Group, options: &milp::Milp
         .iter()
         .map(|&r| scenario.resources[r].id.as_str())
         .collect();
+    if result.status != milp::MilpStatus::Infeasible {
+        return format!(
+            "no plan fits the capacity of {} in every bucket, although the cumulative load fits; the search for the capacity missing ran out of time before it found an answer",
+            names.join(", ")
+        );
+    }
     format!(
         "no plan fits the capacity of {} in every bucket, and no extra capacity alone makes one possible: maximum lots, lot multiples or lead times rule it out",
         names.join(", ")

@@ -13,10 +13,11 @@ pub struct Schema {
     pub required: &'static [&'static str],
 }
 
-/// One data row: its 1-based line number and trimmed cells.
+/// One data row: its 1-based line number and trimmed cells (kept in one
+/// buffer per row, so large files cost one allocation a row, not a cell).
 pub struct Record {
     pub line: u64,
-    cells: Vec<String>,
+    cells: csv::StringRecord,
 }
 
 /// A CSV file read whole and checked against its schema.
@@ -75,11 +76,13 @@ impl CsvFile {
                 )
             })?;
             let line = record.position().map(|p| p.line()).unwrap_or(0);
-            let cells: Vec<String> = record.iter().map(str::to_string).collect();
-            if cells.iter().all(|c| c.is_empty()) {
+            if record.iter().all(|c| c.is_empty()) {
                 continue; // blank lines are harmless
             }
-            raw.push(Record { line, cells });
+            raw.push(Record {
+                line,
+                cells: record,
+            });
         }
         let mut rows = raw.into_iter();
         let header = rows.next().ok_or_else(|| {
@@ -131,7 +134,7 @@ impl CsvFile {
     /// or the cell is empty (empty cells take the default).
     pub fn cell<'a>(&'a self, record: &'a Record, name: &str) -> Option<Cell<'a>> {
         let &column = self.index.get(name)?;
-        let text = record.cells[column].as_str();
+        let text = record.cells.get(column).unwrap_or("");
         if text.is_empty() {
             return None;
         }
@@ -274,7 +277,7 @@ fn decode(path: &Path, bytes: &[u8]) -> Result<String> {
 }
 
 fn check_header(path: &Path, header: &Record, schema: &Schema) -> Result<Vec<String>> {
-    let columns = header.cells.clone();
+    let columns: Vec<String> = header.cells.iter().map(str::to_string).collect();
     if columns.len() == 1 && columns[0].contains(';') {
         return Err(Error::input(
             Location::line(path, header.line),

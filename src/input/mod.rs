@@ -169,10 +169,11 @@ fn read_items(dir: &Path, calendar: &Calendar) -> Result<(Vec<Item>, Vec<Option<
     let periods = calendar.periods;
     let mut items: Vec<Item> = Vec::new();
     let mut rates = Vec::new();
+    let mut seen = std::collections::HashSet::new();
     for record in &file.records {
         let id_cell = file.required(record, "item")?;
         let id = id_cell.text.to_string();
-        if items.iter().any(|item| item.id == id) {
+        if !seen.insert(id.clone()) {
             return Err(id_cell.error(format!("item {id} appears twice; give each item one row")));
         }
         let setup_cost = file.required(record, "setup_cost")?.non_negative()?;
@@ -471,13 +472,11 @@ fn read_routing(
         return Ok(Vec::new());
     };
     let mut routings: Vec<Routing> = Vec::new();
+    let mut pairs = std::collections::HashSet::new();
     for record in &file.records {
         let item = item_of(&file, record, index)?;
         let resource = resource_of(&file, record, resources)?;
-        if routings
-            .iter()
-            .any(|r| r.item == item && r.resource == resource)
-        {
+        if !pairs.insert((item, resource)) {
             return Err(Error::input(
                 file.row_location(record),
                 "this item and resource pair appears twice; give it one row",

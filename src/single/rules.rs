@@ -2,7 +2,8 @@
 //! lot, EOQ lot, periodic order quantity, Silver-Meal, least unit cost and
 //! part-period balancing. Each sizes a lot in a bucket with a positive net
 //! requirement, then the lot constraints apply (raise to `min_lot`, round up
-//! to `lot_multiple`, cut at `max_lot`); docs/algorithms.md gives the
+//! to `lot_multiple`, split above `max_lot` by building ahead);
+//! docs/algorithms.md gives the
 //! conventions and their sources.
 
 use serde::Serialize;
