@@ -210,10 +210,23 @@ fn emit(text: &str) -> Result<()> {
     }
 }
 
-fn json_text(value: &serde_json::Value) -> Result<String> {
-    serde_json::to_string_pretty(value)
-        .map(|s| s + "\n")
-        .map_err(|e| Error::Internal(e.to_string()))
+/// Writes a JSON value to stdout as it is serialised (no copy of the whole
+/// text in memory); a closed pipe ends quietly.
+fn emit_json(value: &serde_json::Value) -> Result<()> {
+    let stdout = std::io::stdout().lock();
+    let mut writer = std::io::BufWriter::new(stdout);
+    let written = serde_json::to_writer_pretty(&mut writer, value)
+        .map_err(std::io::Error::from)
+        .and_then(|_| writer.write_all(b"\n"))
+        .and_then(|_| writer.flush());
+    match written {
+        Ok(()) => Ok(()),
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
+        Err(e) => Err(Error::Output {
+            path: PathBuf::from("<stdout>"),
+            message: e.to_string(),
+        }),
+    }
 }
 
 fn plan(args: PlanArgs) -> Result<i32> {
@@ -256,7 +269,7 @@ fn plan(args: PlanArgs) -> Result<i32> {
         ])?;
     }
     if args.json {
-        emit(&json_text(&report::json::plan(&scenario, &outcome))?)?;
+        emit_json(&report::json::plan(&scenario, &outcome))?;
     } else {
         let detail = Detail {
             all: args.detail,
@@ -282,7 +295,7 @@ fn check(args: CheckArgs) -> Result<i32> {
     let proposal = lotwright::input::read_orders(&args.orders, &scenario)?;
     let report = lotwright::check::check(&scenario, &proposal, &milp);
     if args.json {
-        emit(&json_text(&report::json::check(&scenario, &report))?)?;
+        emit_json(&report::json::check(&scenario, &report))?;
     } else {
         emit(&report::table::check(&scenario, &report))?;
     }
@@ -322,7 +335,7 @@ fn eoq_command(args: EoqArgs) -> Result<i32> {
     let result = eoq::solve(&input)?;
     if args.json {
         let value = serde_json::to_value(&result).map_err(|e| Error::Internal(e.to_string()))?;
-        emit(&json_text(&value)?)?;
+        emit_json(&value)?;
     } else {
         emit(&report::eoq::text(&result))?;
     }
