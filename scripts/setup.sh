@@ -8,7 +8,9 @@ set -euo pipefail
 need=()
 command -v cmake >/dev/null 2>&1 || need+=(cmake)
 command -v g++ >/dev/null 2>&1 || need+=(g++)
-if ! ls /usr/lib/llvm-*/lib/libclang*.so* >/dev/null 2>&1 && ! ls /usr/lib/x86_64-linux-gnu/libclang*.so* >/dev/null 2>&1; then
+# bindgen needs libclang with its headers: the -dev package (a runtime
+# library alone, libclang-NN.so.1, is not enough).
+if ! ls /usr/lib/llvm-*/lib/libclang.so >/dev/null 2>&1 && ! ls /usr/lib/x86_64-linux-gnu/libclang.so >/dev/null 2>&1; then
   need+=(libclang-dev)
 fi
 command -v chromium >/dev/null 2>&1 || need+=(chromium)
