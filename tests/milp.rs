@@ -11,26 +11,7 @@ use lotwright::single::exact;
 use proptest::prelude::*;
 
 fn item(id: &str, demand: &[f64], setup: f64, holding: f64) -> Item {
-    let periods = demand.len();
-    Item {
-        id: id.into(),
-        setup_cost: vec![setup; periods],
-        nominal_setup_cost: setup,
-        nominal_holding_cost: holding,
-        holding_cost: vec![holding; periods],
-        unit_cost: vec![0.0; periods],
-        initial_stock: 0.0,
-        safety_stock: 0.0,
-        lead_time: 0,
-        min_lot: 0.0,
-        lot_multiple: None,
-        max_lot: None,
-        backlog_cost: None,
-        fixed_lot: None,
-        ending_stock: 0.0,
-        demand: demand.to_vec(),
-        receipts: vec![0.0; periods],
-    }
+    Item::simple(id, demand, setup, holding)
 }
 
 fn scenario(items: Vec<Item>, resources: Vec<Resource>, routings: Vec<Routing>) -> Scenario {

@@ -19,7 +19,7 @@ use report_fixture::planned;
 const PROBE: &str = "<script>(function(){var lines=[];\
 document.querySelectorAll('svg').forEach(function(s){var r=s.getBoundingClientRect();\
 lines.push((s.getAttribute('data-chart')||'(unnamed)')+' '+r.width+' '+r.height);});\
-var links=document.querySelectorAll('[src],[href],link,img,iframe,object,embed,video,audio,source').length;\
+var links=document.querySelectorAll('[src],[href],link,img,iframe,object,embed,audio,source,track').length;\
 for(var i=0;i<document.styleSheets.length;i++){var rules=document.styleSheets[i].cssRules;\
 for(var j=0;j<rules.length;j++){if(/url\\(|@import|@font-face/.test(rules[j].cssText))links++;}}\
 lines.push('external '+links+' 0');\

@@ -114,24 +114,14 @@ fn scenario(name: &str, capacity: f64, rows: &[[f64; 4]], demand: &[Vec<f64>]) -
     let items = rows
         .iter()
         .enumerate()
-        .map(|(i, &[_, holding_cost, _, setup_cost])| Item {
-            id: format!("item{}", i + 1),
-            setup_cost: vec![setup_cost; periods],
-            nominal_setup_cost: setup_cost,
-            nominal_holding_cost: holding_cost,
-            holding_cost: vec![holding_cost; periods],
-            unit_cost: vec![0.0; periods],
-            initial_stock: 0.0,
-            safety_stock: 0.0,
-            lead_time: 0,
-            min_lot: 0.0,
-            lot_multiple: None,
-            max_lot: None,
-            backlog_cost: None,
-            fixed_lot: None,
-            ending_stock: 0.0,
-            demand: demand.iter().map(|row| row[i]).collect(),
-            receipts: vec![0.0; periods],
+        .map(|(i, &[_, holding_cost, _, setup_cost])| {
+            let item_demand: Vec<f64> = demand.iter().map(|row| row[i]).collect();
+            Item::simple(
+                &format!("item{}", i + 1),
+                &item_demand,
+                setup_cost,
+                holding_cost,
+            )
         })
         .collect();
     let routings = rows

@@ -51,6 +51,31 @@ pub struct Item {
 }
 
 impl Item {
+    /// An item with constant costs and nothing else: no unit cost, stock,
+    /// lead time, lot rules or backlog (for benchmark readers and tests).
+    pub fn simple(id: &str, demand: &[f64], setup_cost: f64, holding_cost: f64) -> Item {
+        let periods = demand.len();
+        Item {
+            id: id.to_string(),
+            setup_cost: vec![setup_cost; periods],
+            nominal_setup_cost: setup_cost,
+            nominal_holding_cost: holding_cost,
+            holding_cost: vec![holding_cost; periods],
+            unit_cost: vec![0.0; periods],
+            initial_stock: 0.0,
+            safety_stock: 0.0,
+            lead_time: 0,
+            min_lot: 0.0,
+            lot_multiple: None,
+            max_lot: None,
+            backlog_cost: None,
+            fixed_lot: None,
+            ending_stock: 0.0,
+            demand: demand.to_vec(),
+            receipts: vec![0.0; periods],
+        }
+    }
+
     /// True when the item carries a minimum lot, a lot multiple or a maximum lot.
     pub fn has_lot_constraints(&self) -> bool {
         self.min_lot > 0.0 || self.lot_multiple.is_some() || self.max_lot.is_some()

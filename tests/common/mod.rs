@@ -15,26 +15,7 @@ use tempfile::TempDir;
 /// A plain item: constant setup and holding cost, no unit cost, no stock,
 /// no lead time, no lot constraints, no backlog.
 pub fn item(demand: &[f64], setup_cost: f64, holding_cost: f64) -> Item {
-    let periods = demand.len();
-    Item {
-        id: "A".into(),
-        setup_cost: vec![setup_cost; periods],
-        nominal_setup_cost: setup_cost,
-        nominal_holding_cost: holding_cost,
-        holding_cost: vec![holding_cost; periods],
-        unit_cost: vec![0.0; periods],
-        initial_stock: 0.0,
-        safety_stock: 0.0,
-        lead_time: 0,
-        min_lot: 0.0,
-        lot_multiple: None,
-        max_lot: None,
-        backlog_cost: None,
-        fixed_lot: None,
-        ending_stock: 0.0,
-        demand: demand.to_vec(),
-        receipts: vec![0.0; periods],
-    }
+    Item::simple("A", demand, setup_cost, holding_cost)
 }
 
 /// A weekly calendar of `periods` buckets from Monday 2027-01-04.
