@@ -161,6 +161,68 @@ impl Evaluation {
     pub fn average_stock(&self) -> f64 {
         self.items.iter().map(|r| r.average_stock).sum()
     }
+
+    /// Inventory turns per year: the value of the demand (at unit cost) over
+    /// the average stock value, scaled from the horizon to a year (common
+    /// practice). `None` without stock value.
+    pub fn inventory_turns(&self, scenario: &Scenario) -> Option<f64> {
+        let average = self.average_stock_value(scenario);
+        if average <= 0.0 {
+            return None;
+        }
+        let used: f64 = scenario
+            .items
+            .iter()
+            .map(|item| {
+                item.demand
+                    .iter()
+                    .zip(&item.unit_cost)
+                    .map(|(d, c)| d * c)
+                    .sum::<f64>()
+            })
+            .sum();
+        let years = scenario.periods() as f64 / scenario.calendar.kind.per_year();
+        Some(used / average / years)
+    }
+
+    /// Buckets of cover: average stock over mean demand per bucket, summed
+    /// over items as units (weeks of cover for weekly buckets). `None`
+    /// without demand.
+    pub fn buckets_of_cover(&self) -> Option<f64> {
+        let periods = self.items.first().map_or(0, |r| r.on_hand.len());
+        let demand: f64 = self
+            .items
+            .iter()
+            .map(|r| r.gross_requirement.iter().sum::<f64>())
+            .sum();
+        if periods == 0 || demand <= 0.0 {
+            return None;
+        }
+        Some(self.average_stock() / (demand / periods as f64))
+    }
+
+    /// Overtime used, in capacity units, over every resource and bucket.
+    pub fn overtime_used(&self) -> f64 {
+        self.resources.iter().flat_map(|r| r.overtime.iter()).sum()
+    }
+
+    /// Demand met on time over all demand, in [0, 1].
+    pub fn fill_rate(&self) -> f64 {
+        let demand: f64 = self
+            .items
+            .iter()
+            .map(|r| r.gross_requirement.iter().sum::<f64>())
+            .sum();
+        if demand <= 0.0 {
+            return 1.0;
+        }
+        let met: f64 = self
+            .items
+            .iter()
+            .map(|r| r.fill_rate * r.gross_requirement.iter().sum::<f64>())
+            .sum();
+        (met / demand).min(1.0)
+    }
 }
 
 /// A tolerance for comparing quantities of one item: rounding noise from

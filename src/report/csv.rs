@@ -72,6 +72,10 @@ pub fn comparison(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
         "ending_stock",
         "ending_stock_value",
         "lower_bound",
+        "fill_rate",
+        "inventory_turns",
+        "buckets_of_cover",
+        "overtime_used",
     ];
     let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
     for r in &outcome.comparison {
@@ -93,6 +97,10 @@ pub fn comparison(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
             number(e.items.iter().map(|i| i.ending_stock).sum()),
             number(e.ending_stock_value()),
             r.lower_bound.map(number).unwrap_or_default(),
+            number(e.fill_rate()),
+            e.inventory_turns(scenario).map(number).unwrap_or_default(),
+            e.buckets_of_cover().map(number).unwrap_or_default(),
+            number(e.overtime_used()),
         ]);
     }
     write_rows(rows)

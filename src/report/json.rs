@@ -99,6 +99,10 @@ fn row(scenario: &Scenario, result: &MethodResult, reference: Option<f64>) -> Va
         "average_stock_value": clean(evaluation.average_stock_value(scenario)),
         "ending_stock": clean(evaluation.items.iter().map(|r| r.ending_stock).sum()),
         "ending_stock_value": clean(evaluation.ending_stock_value()),
+        "inventory_turns": evaluation.inventory_turns(scenario).map(clean),
+        "buckets_of_cover": evaluation.buckets_of_cover().map(clean),
+        "overtime_used": clean(evaluation.overtime_used()),
+        "fill_rate": clean(evaluation.fill_rate()),
         "extra_cost_percent": extra,
         "notes": result.notes,
     })

@@ -249,6 +249,27 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
         ]);
     }
     grid.render(out);
+    let cover = format!("{}s of cover", scenario.calendar.kind.name());
+    let _ = writeln!(out, "\nService and stock turns by method");
+    let mut grid = Grid::new(&[
+        "method",
+        "fill rate",
+        "turns a year",
+        &cover,
+        "overtime used",
+    ]);
+    for r in rows {
+        let e = &r.evaluation;
+        let or_dash = |v: Option<f64>| v.map_or("-".to_string(), |v| format!("{v:.1}"));
+        grid.push(vec![
+            r.method.to_string(),
+            format!("{:.1} %", 100.0 * e.fill_rate()),
+            or_dash(e.inventory_turns(scenario)),
+            or_dash(e.buckets_of_cover()),
+            quantity((e.overtime_used() * 10.0).round() / 10.0),
+        ]);
+    }
+    grid.render(out);
     for r in rows {
         if r.method != "optimal" {
             for note in &r.notes {
