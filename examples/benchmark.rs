@@ -155,6 +155,7 @@ fn run(args: Args) -> Result<(), Failure> {
         plain,
         relax,
         extra_capacity: false,
+        log_file: None,
     };
     let mut out = io::stdout().lock();
     let threads = args

@@ -127,6 +127,11 @@ pub fn plan_scenario(scenario: &Scenario, options: &Options) -> crate::error::Re
 pub trait Progress {
     /// A group of items that share resources goes to the MILP.
     fn milp_started(&self, _index: usize, _total: usize, _items: usize) {}
+    /// A file HiGHS may write its log to while it solves, so that the
+    /// progress shown can follow the search; `None` keeps HiGHS quiet.
+    fn solver_log(&self) -> Option<std::path::PathBuf> {
+        None
+    }
     /// It came back with this status, cost and gap.
     fn milp_finished(
         &self,
@@ -336,8 +341,11 @@ pub fn solve_exact_with(
         } else {
             milp_index += 1;
             progress.milp_started(milp_index, milp_total, group.items.len());
-            let result =
-                capacity::milp::solve(scenario, &group.items, &remaining(options, started));
+            let limits = MilpOptions {
+                log_file: progress.solver_log(),
+                ..remaining(options, started)
+            };
+            let result = capacity::milp::solve(scenario, &group.items, &limits);
             let gap = (result.objective.abs() > 1e-9).then(|| {
                 ((result.objective - result.lower_bound) / result.objective.abs()).max(0.0)
             });

@@ -38,6 +38,9 @@ pub struct MilpOptions {
     /// Find the least extra capacity that makes the plan possible instead
     /// of the least cost (for explaining infeasible capacity).
     pub extra_capacity: bool,
+    /// Where HiGHS may write its log while it solves (the command line
+    /// reads it to show progress); `None` keeps it quiet.
+    pub log_file: Option<std::path::PathBuf>,
 }
 
 impl Default for MilpOptions {
@@ -49,6 +52,7 @@ impl Default for MilpOptions {
             plain: false,
             relax: false,
             extra_capacity: false,
+            log_file: None,
         }
     }
 }
@@ -228,6 +232,11 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
         return failed(periods, items.len(), started);
     };
     model.make_quiet();
+    if let Some(path) = &options.log_file {
+        model.set_option("log_to_console", false);
+        model.set_option("log_file", path.to_string_lossy().as_ref());
+        model.set_option("output_flag", true);
+    }
     model.set_option("time_limit", options.time_limit.max(0.01));
     model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.99));
     model.set_option("mip_abs_gap", 1e-9);
