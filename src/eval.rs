@@ -54,6 +54,31 @@ pub struct ItemRecord {
     /// The most buckets one planned lot covers (from its receipt to the next
     /// planned receipt or the horizon's end): how far ahead stock is built.
     pub longest_cover: usize,
+    /// Whether negative stock is backlog (allowed) or shortage.
+    pub allows_backlog: bool,
+    /// The item's quantity tolerance (see `quantity_tolerance`).
+    pub tolerance: f64,
+}
+
+impl ItemRecord {
+    /// Units short at the end of bucket `t` (an item without backlog).
+    pub fn shortage(&self, t: usize) -> f64 {
+        let stock = self.on_hand[t];
+        if !self.allows_backlog && stock < -self.tolerance {
+            -stock
+        } else {
+            0.0
+        }
+    }
+
+    /// Units owed at the end of bucket `t` (an item that allows backlog).
+    pub fn backlog(&self, t: usize) -> f64 {
+        if self.allows_backlog {
+            (-self.on_hand[t]).max(0.0)
+        } else {
+            0.0
+        }
+    }
 }
 
 /// Load of one resource, by release bucket.
@@ -446,6 +471,8 @@ fn evaluate_item(
         .unwrap_or(0);
     ItemRecord {
         longest_cover,
+        allows_backlog: item.allows_backlog(),
+        tolerance,
         gross_requirement: item.demand.clone(),
         scheduled_receipts: item.receipts.clone(),
         planned_receipts: receipts.to_vec(),

@@ -283,9 +283,9 @@ pub fn solve_exact_with(
                 plan.receipts[i] = rules::plan(item, Sizing::Rule(Rule::LotForLot));
                 continue;
             }
-            // The O(T log T) program where no resource is shared; the
-            // general one (backlog) otherwise.
-            let solved = if group.resources.is_empty() && !item.allows_backlog() {
+            // The O(T log T) program without backlog; the general one
+            // (backlog) otherwise.
+            let solved = if !item.allows_backlog() {
                 crate::single::fast::solve(item)
             } else {
                 exact::solve(item)

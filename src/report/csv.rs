@@ -127,17 +127,7 @@ pub fn records(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
     let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
     for (item, record) in scenario.items.iter().zip(&evaluation.items) {
         for t in 0..scenario.periods() {
-            let shortage: f64 = evaluation
-                .shortages
-                .iter()
-                .filter(|s| s.item == item.id && s.period == t + 1)
-                .map(|s| s.quantity)
-                .sum();
-            let backlog = if item.allows_backlog() {
-                (-record.on_hand[t]).max(0.0)
-            } else {
-                0.0
-            };
+            let (shortage, backlog) = (record.shortage(t), record.backlog(t));
             rows.push(vec![
                 item.id.clone(),
                 (t + 1).to_string(),

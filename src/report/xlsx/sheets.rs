@@ -225,17 +225,7 @@ pub(super) fn stock_records(
     let mut rows = Vec::new();
     for (item, record) in scenario.items.iter().zip(&evaluation.items) {
         for t in 0..scenario.periods() {
-            let shortage: f64 = evaluation
-                .shortages
-                .iter()
-                .filter(|s| s.item == item.id && s.period == t + 1)
-                .map(|s| s.quantity)
-                .sum();
-            let backlog = if item.allows_backlog() {
-                (-record.on_hand[t]).max(0.0)
-            } else {
-                0.0
-            };
+            let (shortage, backlog) = (record.shortage(t), record.backlog(t));
             rows.push(vec![
                 Cell::Text(item.id.clone()),
                 Cell::Count(t + 1),
