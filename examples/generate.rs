@@ -24,9 +24,14 @@ struct Args {
     items: usize,
     #[arg(long, default_value_t = 52)]
     periods: usize,
-    /// Resources (0: no capacity files); each item runs on one, round robin.
+    /// Resources (0: no capacity files); each item runs on `--routes` of
+    /// them, round robin.
     #[arg(long, default_value_t = 0)]
     resources: usize,
+    /// Resources each item runs on (2 or more ties all items into one
+    /// shared-capacity group).
+    #[arg(long, default_value_t = 1)]
+    routes: usize,
     /// Average load over capacity, e.g. 0.85.
     #[arg(long, default_value_t = 0.85)]
     utilisation: f64,
@@ -53,6 +58,7 @@ impl Random {
     }
 }
 
+#[allow(clippy::needless_range_loop)]
 fn main() -> std::io::Result<()> {
     let args = Args::parse();
     let mut random = Random(args.seed);
@@ -66,7 +72,7 @@ fn main() -> std::io::Result<()> {
     )?;
     let mut items = String::from("item,setup_cost,holding_cost,unit_cost,fixed_lot\n");
     let mut demand = String::from("item,period,quantity\n");
-    let mut total_load = 0.0;
+    let mut item_load = vec![0.0; args.items];
     for i in 0..args.items {
         let mean = 20.0 + 180.0 * random.next();
         let setup = 50.0 + 450.0 * random.next();
@@ -77,7 +83,9 @@ fn main() -> std::io::Result<()> {
         for t in 0..args.periods {
             let phase = t as f64 / 52.0 * std::f64::consts::TAU;
             let level = match args.pattern {
-                Pattern::Seasonal => mean * (1.0 + 0.5 * phase.sin()),
+                // Low in winter, high in summer: cumulative demand never runs
+                // ahead of the average, so the capacity can keep up.
+                Pattern::Seasonal => mean * (1.0 - 0.5 * phase.cos()),
                 Pattern::Lumpy => {
                     if random.next() < 0.3 {
                         mean * 3.0
@@ -89,7 +97,7 @@ fn main() -> std::io::Result<()> {
             };
             let quantity = (level * (0.8 + 0.4 * random.next())).round();
             if quantity > 0.0 {
-                total_load += quantity;
+                item_load[i] += quantity;
                 let _ = writeln!(demand, "P{i:05},{},{quantity}", t + 1);
             }
         }
@@ -97,20 +105,36 @@ fn main() -> std::io::Result<()> {
     std::fs::write(args.out.join("items.csv"), items)?;
     std::fs::write(args.out.join("demand.csv"), demand)?;
     if args.resources > 0 {
-        // Each item runs on one resource, round robin; capacity is set so
-        // that production plus one setup per item and bucket... scaled by
-        // the setup share meets the utilisation asked for.
-        let per_resource_load = total_load / args.resources as f64 / args.periods as f64;
-        let capacity = per_resource_load / args.utilisation.max(0.01);
-        let items_per_resource = args.items.div_ceil(args.resources) as f64;
-        let setup_time = args.setup_share * capacity / items_per_resource;
+        // Each item runs on `routes` resources, round robin. Each resource's
+        // capacity is set so that its average production load is the
+        // utilisation asked for; one setup per item and bucket would take
+        // the setup share of capacity on top of it.
+        let routes = args.routes.clamp(1, args.resources);
+        let resource_of = |i: usize| (0..routes).map(move |k| (i + k) % args.resources);
+        let mut load = vec![0.0; args.resources];
+        let mut count = vec![0usize; args.resources];
+        for (i, &quantity) in item_load.iter().enumerate() {
+            for r in resource_of(i) {
+                load[r] += quantity;
+                count[r] += 1;
+            }
+        }
+        let capacity: Vec<f64> = load
+            .iter()
+            .map(|l| (l / args.periods as f64 / args.utilisation.max(0.01)).ceil())
+            .collect();
+        let setup_time: Vec<f64> = (0..args.resources)
+            .map(|r| args.setup_share * capacity[r] / count[r].max(1) as f64)
+            .collect();
         let mut resources = String::from("resource,capacity\n");
-        for r in 0..args.resources {
-            let _ = writeln!(resources, "R{r},{:.1}", capacity.ceil());
+        for (r, c) in capacity.iter().enumerate() {
+            let _ = writeln!(resources, "R{r},{c:.1}");
         }
         let mut routing = String::from("item,resource,per_unit,setup_time\n");
         for i in 0..args.items {
-            let _ = writeln!(routing, "P{i:05},R{},1,{setup_time:.2}", i % args.resources);
+            for r in resource_of(i) {
+                let _ = writeln!(routing, "P{i:05},R{r},1,{:.2}", setup_time[r]);
+            }
         }
         std::fs::write(args.out.join("resources.csv"), resources)?;
         std::fs::write(args.out.join("routing.csv"), routing)?;
