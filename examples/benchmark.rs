@@ -154,8 +154,7 @@ fn run(args: Args) -> Result<(), Failure> {
         threads: args.threads,
         plain,
         relax,
-        extra_capacity: false,
-        log_file: None,
+        ..MilpOptions::default()
     };
     let mut out = io::stdout().lock();
     let threads = args

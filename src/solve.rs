@@ -2,9 +2,11 @@
 //! that share capacity), every lot rule for comparison, and one evaluation
 //! of each.
 
+use rayon::prelude::*;
 use serde::Serialize;
 
-use crate::capacity::{self, milp::MilpOptions};
+use crate::capacity::fix_optimize::{Found, Search};
+use crate::capacity::{self, milp::MilpOptions, GroupSolver};
 use crate::eval::{evaluate, Evaluation};
 use crate::model::{Plan, Scenario};
 use crate::single::exact;
@@ -196,7 +198,7 @@ fn has_fixed_lot(scenario: &Scenario) -> bool {
 pub fn run_rule(scenario: &Scenario, rule: Rule) -> MethodResult {
     let receipts = scenario
         .items
-        .iter()
+        .par_iter()
         .map(|item| rules::plan(item, Sizing::Rule(rule)))
         .collect();
     let plan = Plan { receipts };
@@ -248,127 +250,39 @@ pub fn solve_exact_with(
     let periods = scenario.periods();
     let groups = capacity::components(scenario);
     let milp_total = groups.iter().filter(|g| g.items.len() > 1).count();
-    let mut milp_index = 0;
     let started = std::time::Instant::now();
+    // Groups without resources are independent dynamic programs: solved in
+    // parallel, then taken in group order like the rest, so the result is
+    // the same as one thread's.
+    let free: Vec<Option<GroupOutcome>> = groups
+        .par_iter()
+        .map(|group| {
+            group
+                .resources
+                .is_empty()
+                .then(|| solve_group(scenario, group, options, started, &Silent, 0, 0))
+        })
+        .collect();
     let mut plan = Plan::empty(scenario.items.len(), periods);
     let mut lower_bound = 0.0;
     let mut notes = Vec::new();
     let mut components = Vec::new();
-    for group in groups {
-        let mut component = Component {
-            items: group
-                .items
-                .iter()
-                .map(|&i| scenario.items[i].id.clone())
-                .collect(),
-            resources: group
-                .resources
-                .iter()
-                .map(|&r| scenario.resources[r].id.clone())
-                .collect(),
-            solver: "dp",
-            status: Status::Optimal,
-        };
-        // Need before the lead time has passed makes an item infeasible
-        // whatever the capacity; the dynamic program finds it.
-        let mut single = Vec::new();
-        for &i in &group.items {
-            let item = &scenario.items[i];
-            if item.allows_backlog() && periods > exact::BACKLOG_PERIOD_LIMIT {
-                component.status = Status::Unknown;
-                notes.push(format!(
-                    "item {}: backlog over {} buckets is beyond the dynamic program's limit of {}; no plan was computed",
-                    item.id, periods, exact::BACKLOG_PERIOD_LIMIT
-                ));
-                plan.receipts[i] = rules::plan(item, Sizing::Rule(Rule::LotForLot));
-                continue;
+    let mut milp_index = 0;
+    for (group, outcome) in groups.iter().zip(free) {
+        let outcome = outcome.unwrap_or_else(|| {
+            if group.items.len() > 1 {
+                milp_index += 1;
             }
-            // The O(T log T) program without backlog; the general one
-            // (backlog) otherwise.
-            let solved = if !item.allows_backlog() {
-                crate::single::fast::solve(item)
-            } else {
-                exact::solve(item)
-            };
-            match solved {
-                Some(exact) => single.push((i, exact)),
-                None => {
-                    component.status = Status::Infeasible;
-                    notes.push(explain_item(item));
-                    plan.receipts[i] = rules::plan(item, Sizing::Rule(Rule::LotForLot));
-                }
-            }
+            solve_group(
+                scenario, group, options, started, progress, milp_index, milp_total,
+            )
+        });
+        for (i, receipts) in outcome.receipts {
+            plan.receipts[i] = receipts;
         }
-        if component.status != Status::Optimal {
-            for (i, exact) in single {
-                plan.receipts[i] = exact.receipts;
-            }
-            components.push(component);
-            continue;
-        }
-        if group.resources.is_empty() {
-            for (i, exact) in single {
-                let item = &scenario.items[i];
-                if item.has_lot_constraints() && !meets_lot_constraints(item, &exact.receipts) {
-                    // Lot constraints: the program over stock levels for
-                    // whole quantities, else the MILP, handles them exactly.
-                    solve_constrained(
-                        scenario,
-                        options,
-                        started,
-                        i,
-                        &mut plan,
-                        &mut component,
-                        &mut lower_bound,
-                        &mut notes,
-                    );
-                } else {
-                    lower_bound += exact.cost;
-                    plan.receipts[i] = exact.receipts;
-                }
-            }
-        } else if let [i] = group.items[..] {
-            solve_constrained(
-                scenario,
-                options,
-                started,
-                i,
-                &mut plan,
-                &mut component,
-                &mut lower_bound,
-                &mut notes,
-            );
-        } else {
-            milp_index += 1;
-            progress.milp_started(milp_index, milp_total, group.items.len());
-            let limits = MilpOptions {
-                log_file: progress.solver_log(),
-                ..remaining(options, started)
-            };
-            let result = capacity::milp::solve(scenario, &group.items, &limits);
-            let gap = (result.objective.abs() > 1e-9).then(|| {
-                ((result.objective - result.lower_bound) / result.objective.abs()).max(0.0)
-            });
-            let status = match result.status {
-                capacity::milp::MilpStatus::Optimal => Status::Optimal,
-                capacity::milp::MilpStatus::Feasible => Status::Feasible,
-                capacity::milp::MilpStatus::Infeasible => Status::Infeasible,
-                capacity::milp::MilpStatus::NoPlan => Status::Unknown,
-            };
-            progress.milp_finished(milp_index, milp_total, status, result.objective, gap);
-            component.solver = "milp";
-            take_milp(
-                scenario,
-                options,
-                &group,
-                &result,
-                &mut plan,
-                &mut component,
-                &mut lower_bound,
-                &mut notes,
-            );
-        }
-        components.push(component);
+        lower_bound += outcome.lower_bound;
+        notes.extend(outcome.notes);
+        components.push(outcome.component);
     }
     for item in &scenario.items {
         if item.ending_stock > 0.0 && item.lead_time >= periods {
@@ -408,6 +322,182 @@ pub fn solve_exact_with(
     }
 }
 
+/// What solving one group gave.
+struct GroupOutcome {
+    component: Component,
+    /// Receipts by item of the scenario.
+    receipts: Vec<(usize, Vec<f64>)>,
+    lower_bound: f64,
+    notes: Vec<String>,
+}
+
+/// Receipts of a group's items as they are decided.
+#[derive(Default)]
+struct Receipts(Vec<(usize, Vec<f64>)>);
+
+impl Receipts {
+    fn set(&mut self, item: usize, receipts: Vec<f64>) {
+        match self.0.iter_mut().find(|(i, _)| *i == item) {
+            Some(slot) => slot.1 = receipts,
+            None => self.0.push((item, receipts)),
+        }
+    }
+}
+
+/// Solves one group: the dynamic programs of its items, then the capacitated
+/// program, the MILP or a heuristic as its size and resources call for.
+fn solve_group(
+    scenario: &Scenario,
+    group: &capacity::Group,
+    options: &MilpOptions,
+    started: std::time::Instant,
+    progress: &dyn Progress,
+    milp_index: usize,
+    milp_total: usize,
+) -> GroupOutcome {
+    let periods = scenario.periods();
+    let mut plan = Receipts::default();
+    let mut lower_bound = 0.0;
+    let mut notes = Vec::new();
+    let mut component = Component {
+        items: group
+            .items
+            .iter()
+            .map(|&i| scenario.items[i].id.clone())
+            .collect(),
+        resources: group
+            .resources
+            .iter()
+            .map(|&r| scenario.resources[r].id.clone())
+            .collect(),
+        solver: "dp",
+        status: Status::Optimal,
+    };
+    // Need before the lead time has passed makes an item infeasible
+    // whatever the capacity; the dynamic program finds it.
+    let mut single = Vec::new();
+    for &i in &group.items {
+        let item = &scenario.items[i];
+        if item.allows_backlog() && periods > exact::BACKLOG_PERIOD_LIMIT {
+            component.status = Status::Unknown;
+            notes.push(format!(
+                "item {}: backlog over {} buckets is beyond the dynamic program's limit of {}; no plan was computed",
+                item.id, periods, exact::BACKLOG_PERIOD_LIMIT
+            ));
+            plan.set(i, rules::plan(item, Sizing::Rule(Rule::LotForLot)));
+            continue;
+        }
+        // The O(T log T) program without backlog; the general one
+        // (backlog) otherwise.
+        let solved = if !item.allows_backlog() {
+            crate::single::fast::solve(item)
+        } else {
+            exact::solve(item)
+        };
+        match solved {
+            Some(exact) => single.push((i, exact)),
+            None => {
+                component.status = Status::Infeasible;
+                notes.push(explain_item(item));
+                plan.set(i, rules::plan(item, Sizing::Rule(Rule::LotForLot)));
+            }
+        }
+    }
+    if component.status != Status::Optimal {
+        for (i, exact) in single {
+            plan.set(i, exact.receipts);
+        }
+        return GroupOutcome {
+            component,
+            receipts: plan.0,
+            lower_bound,
+            notes,
+        };
+    }
+    if group.resources.is_empty() {
+        for (i, exact) in single {
+            let item = &scenario.items[i];
+            if item.has_lot_constraints() && !meets_lot_constraints(item, &exact.receipts) {
+                // Lot constraints: the program over stock levels for
+                // whole quantities, else the MILP, handles them exactly.
+                solve_constrained(
+                    scenario,
+                    options,
+                    started,
+                    i,
+                    &mut plan,
+                    &mut component,
+                    &mut lower_bound,
+                    &mut notes,
+                );
+            } else {
+                lower_bound += exact.cost;
+                plan.set(i, exact.receipts);
+            }
+        }
+    } else if let [i] = group.items[..] {
+        solve_constrained(
+            scenario,
+            options,
+            started,
+            i,
+            &mut plan,
+            &mut component,
+            &mut lower_bound,
+            &mut notes,
+        );
+    } else {
+        progress.milp_started(milp_index, milp_total, group.items.len());
+        let limits = MilpOptions {
+            log_file: progress.solver_log(),
+            ..remaining(options, started)
+        };
+        let solver = options.solver.pick(group.items.len(), periods);
+        let result = match solver {
+            GroupSolver::Milp | GroupSolver::Auto => {
+                component.solver = "milp";
+                capacity::milp::solve(scenario, &group.items, &limits)
+            }
+            GroupSolver::Lagrangean | GroupSolver::FixAndOptimize => {
+                let search = if solver == GroupSolver::Lagrangean {
+                    Search::Lagrangean
+                } else {
+                    Search::FixAndOptimize
+                };
+                component.solver = solver.name();
+                let found = capacity::fix_optimize::solve(scenario, group, &limits, search);
+                notes.push(heuristic_note(&component, &found));
+                found.result
+            }
+        };
+        let gap = (result.objective.abs() > 1e-9)
+            .then(|| ((result.objective - result.lower_bound) / result.objective.abs()).max(0.0));
+        let status = match result.status {
+            capacity::milp::MilpStatus::Optimal => Status::Optimal,
+            capacity::milp::MilpStatus::Feasible => Status::Feasible,
+            capacity::milp::MilpStatus::Infeasible => Status::Infeasible,
+            capacity::milp::MilpStatus::NoPlan => Status::Unknown,
+        };
+        progress.milp_finished(milp_index, milp_total, status, result.objective, gap);
+        take_milp(
+            scenario,
+            options,
+            group,
+            &result,
+            &mut plan,
+            &mut component,
+            &mut lower_bound,
+            &mut notes,
+        );
+    }
+    GroupOutcome {
+        component,
+        receipts: plan.0,
+        lower_bound,
+        notes,
+    }
+}
+
 /// One item with lot constraints or resources of its own: the dynamic
 /// program over stock levels when quantities are whole and the state space
 /// is within its bound, else the MILP (saying why).
@@ -417,7 +507,7 @@ fn solve_constrained(
     options: &MilpOptions,
     started: std::time::Instant,
     i: usize,
-    plan: &mut Plan,
+    plan: &mut Receipts,
     component: &mut Component,
     lower_bound: &mut f64,
     notes: &mut Vec<String>,
@@ -427,13 +517,13 @@ fn solve_constrained(
     match single_dp::solve(scenario, i) {
         Ok(Some((receipts, cost))) => {
             component.solver = "dp";
-            plan.receipts[i] = receipts;
+            plan.set(i, receipts);
             *lower_bound += cost;
             return;
         }
         Ok(None) => {
             component.status = Status::Infeasible;
-            plan.receipts[i] = rules::plan(item, Sizing::Rule(Rule::LotForLot));
+            plan.set(i, rules::plan(item, Sizing::Rule(Rule::LotForLot)));
             let group = capacity::Group {
                 items: vec![i],
                 resources: scenario.routings_of(i).map(|r| r.resource).collect(),
@@ -473,6 +563,37 @@ fn solve_constrained(
     );
 }
 
+/// What a heuristic did for a group, in words.
+fn heuristic_note(component: &Component, found: &Found) -> String {
+    let what = match component.solver {
+        "lagrangean" => format!(
+            "the Lagrangean relaxation ({} subgradient steps) with its smoothing heuristic",
+            found.iterations
+        ),
+        _ => format!(
+            "fix-and-optimize ({} subproblems on HiGHS, {} improved the plan) from the Lagrangean relaxation ({} subgradient steps)",
+            found.subproblems, found.improved, found.iterations
+        ),
+    };
+    format!(
+        "{}: planned by {what}; the lower bound is the relaxation's, so the gap shown is proven but optimality is not claimed",
+        group_name(component)
+    )
+}
+
+/// A group named by its items when few, else by their count and resources.
+fn group_name(component: &Component) -> String {
+    if component.items.len() <= 6 {
+        component.items.join(", ")
+    } else {
+        format!(
+            "the group of {} items on {}",
+            component.items.len(),
+            component.resources.join(", ")
+        )
+    }
+}
+
 /// The options with the time limit cut to what is left of the budget.
 fn remaining(options: &MilpOptions, started: std::time::Instant) -> MilpOptions {
     let left = options.time_limit - started.elapsed().as_secs_f64();
@@ -489,23 +610,23 @@ fn take_milp(
     options: &MilpOptions,
     group: &capacity::Group,
     result: &capacity::milp::MilpResult,
-    plan: &mut Plan,
+    plan: &mut Receipts,
     component: &mut Component,
     lower_bound: &mut f64,
     notes: &mut Vec<String>,
 ) {
     use capacity::milp::MilpStatus;
-    let names = component.items.join(", ");
+    let names = group_name(component);
     match result.status {
         MilpStatus::Optimal | MilpStatus::Feasible => {
             for (k, &i) in group.items.iter().enumerate() {
-                plan.receipts[i] = result.receipts[k].clone();
+                plan.set(i, result.receipts[k].clone());
             }
             *lower_bound += result.lower_bound;
-            if result.status == MilpStatus::Feasible {
-                if component.status == Status::Optimal {
-                    component.status = Status::Feasible;
-                }
+            if result.status == MilpStatus::Feasible && component.status == Status::Optimal {
+                component.status = Status::Feasible;
+            }
+            if result.status == MilpStatus::Feasible && component.solver == "milp" {
                 notes.push(format!(
                     "{}: the solver stopped {} before proving optimality; the plan is feasible, with its lower bound in the gap",
                     names,
@@ -516,7 +637,10 @@ fn take_milp(
         MilpStatus::Infeasible => {
             component.status = Status::Infeasible;
             for &i in &group.items {
-                plan.receipts[i] = rules::plan(&scenario.items[i], Sizing::Rule(Rule::LotForLot));
+                plan.set(
+                    i,
+                    rules::plan(&scenario.items[i], Sizing::Rule(Rule::LotForLot)),
+                );
             }
             notes.push(if group.resources.is_empty() {
                 format!("{names}: no plan meets the lot constraints and stock floors")
@@ -527,7 +651,10 @@ fn take_milp(
         MilpStatus::NoPlan => {
             component.status = Status::Unknown;
             for &i in &group.items {
-                plan.receipts[i] = rules::plan(&scenario.items[i], Sizing::Rule(Rule::LotForLot));
+                plan.set(
+                    i,
+                    rules::plan(&scenario.items[i], Sizing::Rule(Rule::LotForLot)),
+                );
             }
             notes.push(format!(
                 "{names}: the time limit ran out before the solver found a plan; the plan shown is lot-for-lot and may overload capacity"

@@ -41,6 +41,20 @@ pub struct MilpOptions {
     /// Where HiGHS may write its log while it solves (the command line
     /// reads it to show progress); `None` keeps it quiet.
     pub log_file: Option<std::path::PathBuf>,
+    /// Setups fixed from outside (fix-and-optimize): by item of the
+    /// component and receipt bucket, `Some(open)` fixes the setup, `None`
+    /// leaves it to the solver.
+    pub fixed: Option<Vec<Vec<Option<bool>>>>,
+    /// A cost per unit of capacity used beyond capacity and overtime, so
+    /// that every setup pattern has a plan (fix-and-optimize's search; a
+    /// plan that uses it overloads and is not feasible).
+    pub elastic: Option<f64>,
+    /// A plan to start from (receipts by item of the component), handed to
+    /// HiGHS as its first incumbent.
+    pub start: Option<Vec<Vec<f64>>>,
+    /// What plans groups of several items (the `solve` module reads it;
+    /// this function always solves the MILP).
+    pub solver: super::GroupSolver,
 }
 
 impl Default for MilpOptions {
@@ -53,6 +67,10 @@ impl Default for MilpOptions {
             relax: false,
             extra_capacity: false,
             log_file: None,
+            fixed: None,
+            elastic: None,
+            start: None,
+            solver: super::GroupSolver::Auto,
         }
     }
 }
@@ -112,6 +130,8 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     let mut constant = 0.0;
     let mut constraints = Vec::new();
     let mut columns = Vec::with_capacity(items.len());
+    // Integer columns and the value a start plan gives them.
+    let mut start_values: Vec<(Variable, f64)> = Vec::new();
     let binary = |vars: &mut ProblemVariables| {
         if options.relax {
             vars.add(variable().min(0.0).max(1.0))
@@ -119,15 +139,29 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
             vars.add(variable().binary())
         }
     };
-    for &i in items {
+    for (k, &i) in items.iter().enumerate() {
         let item = &scenario.items[i];
-        let cap = capacity_bounds(scenario, i, options.extra_capacity);
+        let cap = capacity_bounds(
+            scenario,
+            i,
+            options.extra_capacity || options.elastic.is_some(),
+        );
         let mut setup = vec![None; periods];
+        let fixed = |j: usize| options.fixed.as_ref().and_then(|f| f[k][j]);
         for (j, slot) in setup.iter_mut().enumerate().skip(item.lead_time) {
+            if fixed(j) == Some(false) {
+                continue;
+            }
             let y = binary(&mut vars);
             objective += item.setup_cost[j - item.lead_time] * y;
             if cap[j] <= 0.0 {
                 constraints.push(constraint::eq(y, 0.0));
+            } else if fixed(j) == Some(true) {
+                constraints.push(constraint::eq(y, 1.0));
+            }
+            if let Some(start) = &options.start {
+                let open = start[k][j] > 0.0 || fixed(j) == Some(true);
+                start_values.push((y, if open { 1.0 } else { 0.0 }));
             }
             *slot = Some(y);
         }
@@ -153,7 +187,7 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
                 &mut constraints,
             )
         };
-        lot_constraints(
+        let counts = lot_constraints(
             item,
             &setup,
             &quantity,
@@ -161,6 +195,11 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
             &mut constraints,
             options.relax,
         );
+        if let (Some(start), Some(multiple)) = (&options.start, item.lot_multiple) {
+            for (j, count) in counts {
+                start_values.push((count, (start[k][j] / multiple).round()));
+            }
+        }
         columns.push(ItemColumns { setup, quantity });
     }
     // Capacity by resource and release bucket, with overtime.
@@ -208,6 +247,10 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
                 load -= extra;
                 slack_total += extra;
                 slacks.push((r, t, extra));
+            } else if let Some(penalty) = options.elastic {
+                let extra = vars.add(variable().min(0.0));
+                objective += penalty * extra;
+                load -= extra;
             }
             constraints.push(load.leq(resource.capacity[t]));
         }
@@ -241,9 +284,20 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.99));
     model.set_option("mip_abs_gap", 1e-9);
     model.set_option("random_seed", 1);
+    if options.start.is_some() {
+        // Only the integer columns are given; HiGHS finds the rest by
+        // solving the LP with them fixed.
+        let mut start = vec![0.0; index.len()];
+        for (v, value) in &start_values {
+            start[index[v]] = *value;
+        }
+        // A start HiGHS cannot use is only a lost head start.
+        let _ = model.try_set_solution(Some(&start), None, None, None);
+    }
     if let Some(threads) = options.threads {
         model.set_option("threads", threads as i32);
     }
+
     let Ok(solved) = model.try_solve() else {
         return failed(periods, items.len(), started);
     };
@@ -580,7 +634,8 @@ fn flow_model(
     quantity
 }
 
-/// min_lot, lot_multiple and max_lot on the receipt quantities.
+/// min_lot, lot_multiple and max_lot on the receipt quantities; returns the
+/// lot-count columns of a lot_multiple by receipt bucket.
 fn lot_constraints(
     item: &Item,
     setup: &[Option<Variable>],
@@ -588,7 +643,8 @@ fn lot_constraints(
     vars: &mut ProblemVariables,
     constraints: &mut Vec<good_lp::Constraint>,
     relax: bool,
-) {
+) -> Vec<(usize, Variable)> {
+    let mut counts = Vec::new();
     for (j, q) in quantity.iter().enumerate() {
         let Some(y) = setup[j] else { continue };
         if item.min_lot > 0.0 {
@@ -604,6 +660,8 @@ fn lot_constraints(
                 vars.add(variable().integer().min(0.0))
             };
             constraints.push(q.clone().eq(multiple * count));
+            counts.push((j, count));
         }
     }
+    counts
 }

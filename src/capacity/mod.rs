@@ -2,10 +2,55 @@
 //! item-resource graph, the MILP for components that share a resource, and
 //! the explanation when capacity cannot be met.
 
+pub mod fix_optimize;
+pub mod lagrange;
 pub mod milp;
 pub mod single_dp;
 
 use crate::model::Scenario;
+
+/// What plans a group of several items that share resources.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum GroupSolver {
+    /// The MILP up to `AUTO_SETUP_LIMIT` setup decisions, fix-and-optimize
+    /// above.
+    #[default]
+    Auto,
+    Milp,
+    Lagrangean,
+    FixAndOptimize,
+}
+
+/// Setup decisions (items times buckets) above which `auto` leaves the
+/// full MILP for fix-and-optimize.
+pub const AUTO_SETUP_LIMIT: usize = 2000;
+
+impl GroupSolver {
+    pub const NAMES: [&'static str; 4] = ["auto", "milp", "lagrangean", "fix-and-optimize"];
+
+    pub fn parse(name: &str) -> Option<GroupSolver> {
+        Some(match name {
+            "auto" => GroupSolver::Auto,
+            "milp" => GroupSolver::Milp,
+            "lagrangean" => GroupSolver::Lagrangean,
+            "fix-and-optimize" => GroupSolver::FixAndOptimize,
+            _ => return None,
+        })
+    }
+
+    pub fn name(self) -> &'static str {
+        Self::NAMES[self as usize]
+    }
+
+    /// The solver `auto` stands for on a group of this size.
+    pub fn pick(self, items: usize, periods: usize) -> GroupSolver {
+        match self {
+            GroupSolver::Auto if items * periods > AUTO_SETUP_LIMIT => GroupSolver::FixAndOptimize,
+            GroupSolver::Auto => GroupSolver::Milp,
+            other => other,
+        }
+    }
+}
 
 /// A group of items that share resources, directly or through each other.
 #[derive(Debug, Clone, PartialEq, Eq)]

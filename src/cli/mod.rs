@@ -88,7 +88,16 @@ struct Limits {
     /// Threads HiGHS may use (default: its own choice).
     #[arg(long, value_name = "N")]
     threads: Option<u32>,
+    /// What plans a group of items that share resources: milp (exact, for
+    /// groups HiGHS can close), lagrangean (relaxation and smoothing),
+    /// fix-and-optimize (relaxation, then MILP subproblems), or auto (the
+    /// MILP up to 2000 setup decisions, items times buckets, else
+    /// fix-and-optimize). Heuristics report a proven lower bound and gap.
+    #[arg(long, value_name = "NAME", default_value = "auto")]
+    solver: String,
 }
+
+use lotwright::capacity::GroupSolver;
 
 impl Limits {
     fn milp(&self) -> Result<lotwright::capacity::milp::MilpOptions> {
@@ -115,6 +124,13 @@ impl Limits {
             }
             options.threads = Some(threads);
         }
+        options.solver = GroupSolver::parse(&self.solver).ok_or_else(|| {
+            Error::usage(format!(
+                "unknown solver {}; choose one of {}",
+                self.solver,
+                GroupSolver::NAMES.join(", ")
+            ))
+        })?;
         Ok(options)
     }
 }

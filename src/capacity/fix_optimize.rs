@@ -1,0 +1,277 @@
+//! Large groups of items that share resources, where the full MILP will not
+//! finish: a lower bound from the Lagrangean relaxation (`lagrange`) and a
+//! plan improved by fix-and-optimize, after S. Helber and F. Sahling (2010),
+//! "A fix-and-optimize approach for the multi-level capacitated lot sizing
+//! problem", International Journal of Production Economics 123(2).
+//!
+//! Fix-and-optimize keeps a plan and, one subproblem at a time, frees the
+//! setups of a window of buckets (all items) or of a block of items (all
+//! buckets), fixes every other setup where the plan has it, and solves the
+//! resulting MILP on HiGHS, started from the plan, so a subproblem never
+//! returns anything worse. During the search capacity may be exceeded at a
+//! high price (the start need not fit); the plan returned fits, or the
+//! group is reported without a plan.
+
+use std::time::{Duration, Instant};
+
+use super::lagrange::{self, Frame};
+use super::milp::{self, MilpOptions, MilpResult, MilpStatus};
+use super::Group;
+use crate::eval::{evaluate, quantity_tolerance};
+use crate::model::{Plan, Scenario};
+
+/// Buckets freed together in a time-window subproblem (windows overlap by
+/// half), items freed together in an item subproblem, and the seconds one
+/// subproblem may take: tuned on the generated 100-item, 52-week, 3-resource
+/// group of docs/performance.md, where larger subproblems hit their limit
+/// before improving the plan.
+const WINDOW: usize = 4;
+const BLOCK: usize = 10;
+const SUBPROBLEM_LIMIT: f64 = 3.0;
+
+/// Which heuristic plans the group.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Search {
+    /// Lagrangean relaxation with the smoothing heuristic only.
+    Lagrangean,
+    /// The relaxation, then fix-and-optimize from its best plan.
+    FixAndOptimize,
+}
+
+/// What a heuristic solve found, with the relaxation's figures.
+#[derive(Debug, Clone)]
+pub struct Found {
+    pub result: MilpResult,
+    pub iterations: usize,
+    /// Subproblems solved and how many improved the plan.
+    pub subproblems: usize,
+    pub improved: usize,
+}
+
+/// Plans `group` with `search` within `options.time_limit`.
+pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions, search: Search) -> Found {
+    let started = Instant::now();
+    let budget = Duration::from_secs_f64(options.time_limit.max(0.1));
+    let relax_share = match search {
+        Search::Lagrangean => 1.0,
+        Search::FixAndOptimize => 0.15,
+    };
+    let items = &group.items;
+    let periods = scenario.periods();
+    let Some(relaxation) = lagrange::relax(
+        scenario,
+        items,
+        &group.resources,
+        started + budget.mul_f64(relax_share),
+        2000,
+    ) else {
+        return Found {
+            result: no_plan(items.len(), periods, started, MilpStatus::Infeasible),
+            iterations: 0,
+            subproblems: 0,
+            improved: 0,
+        };
+    };
+    let subset = scenario.subset(items);
+    let frame = Frame::new(scenario, items, &group.resources);
+    let penalty = overload_price(scenario, items);
+    let score = |receipts: &[Vec<f64>]| -> (f64, f64) {
+        let cost = evaluate(
+            &subset,
+            &Plan {
+                receipts: receipts.to_vec(),
+            },
+        )
+        .total_cost();
+        let over = overload(&frame, scenario, &group.resources, receipts);
+        (cost + penalty * over, over)
+    };
+    // The start: the smoothed plan when the relaxation found one, else the
+    // subproblems' own plans, overloads and all (measured: a better start
+    // than lot-for-lot, whose setup time everywhere leaves more to repair).
+    let mut current = match &relaxation.best_plan {
+        Some((receipts, _)) => receipts.clone(),
+        None => relaxation.pattern.clone(),
+    };
+    let mut current_score = score(&current);
+
+    let mut subproblems = 0;
+    let mut improved = 0;
+    if search == Search::FixAndOptimize {
+        let deadline = started + budget;
+        let width = WINDOW.min(periods);
+        let block = BLOCK.min(items.len());
+        'passes: loop {
+            let mut better = false;
+            // Windows of buckets from the first on, then blocks of items
+            // over the whole horizon (measured on the generated group:
+            // better than blocks first, or windows ordered by overload).
+            let windows = (0..periods).step_by((width / 2).max(1));
+            let blocks = (0..items.len()).step_by(block);
+            let frees: Vec<Free> = windows
+                .map(|a| Free::Buckets(a, (a + width).min(periods)))
+                .chain(blocks.map(|b| Free::Items(b, (b + block).min(items.len()))))
+                .collect();
+            for free in frees {
+                let left = deadline.saturating_duration_since(Instant::now());
+                if left < Duration::from_millis(200) {
+                    break 'passes;
+                }
+                let fixed: Vec<Vec<Option<bool>>> = (0..items.len())
+                    .map(|k| {
+                        let tolerance = quantity_tolerance(&subset.items[k]);
+                        (0..periods)
+                            .map(|j| (!free.contains(k, j)).then(|| current[k][j] > tolerance))
+                            .collect()
+                    })
+                    .collect();
+                let sub = MilpOptions {
+                    time_limit: left.as_secs_f64().min(SUBPROBLEM_LIMIT),
+                    gap: Some(1e-3),
+                    fixed: Some(fixed),
+                    elastic: Some(penalty),
+                    // The stock-flow model with big-M from the whole need:
+                    // small, and any start plan fits it (measured better
+                    // here than facility location or tighter big-M).
+                    plain: true,
+                    start: Some(current.clone()),
+                    log_file: None,
+                    ..options.clone()
+                };
+                let result = milp::solve(scenario, items, &sub);
+                subproblems += 1;
+                if !matches!(result.status, MilpStatus::Optimal | MilpStatus::Feasible) {
+                    continue;
+                }
+                let candidate = score(&result.receipts);
+                if std::env::var_os("LOTWRIGHT_TRACE").is_some() {
+                    eprintln!(
+                        "fix-and-optimize {subproblems}: {:.2} s, cost with overload priced {:.2}, overload {:.2}",
+                        result.seconds, candidate.0, candidate.1
+                    );
+                }
+                if candidate.0 < current_score.0 - 1e-7 * current_score.0.abs().max(1.0) {
+                    current = result.receipts;
+                    current_score = candidate;
+                    improved += 1;
+                    better = true;
+                }
+            }
+            if !better {
+                break;
+            }
+        }
+    }
+    let bound = relaxation.lower_bound;
+    let evaluation = evaluate(
+        &subset,
+        &Plan {
+            receipts: current.clone(),
+        },
+    );
+    let seconds = started.elapsed().as_secs_f64();
+    let result = if current_score.1 > 1e-9 || !evaluation.feasible {
+        MilpResult {
+            lower_bound: bound,
+            ..no_plan(items.len(), periods, started, MilpStatus::NoPlan)
+        }
+    } else {
+        let cost = evaluation.total_cost();
+        let proven = (cost - bound) <= milp::OPTIMALITY_GAP * cost.abs().max(1e-9);
+        MilpResult {
+            status: if proven {
+                MilpStatus::Optimal
+            } else {
+                MilpStatus::Feasible
+            },
+            receipts: current,
+            objective: cost,
+            solver_objective: cost,
+            lower_bound: bound.min(cost),
+            seconds,
+            hit_time_limit: Instant::now() >= started + budget,
+            shortfall: Vec::new(),
+        }
+    };
+    Found {
+        result,
+        iterations: relaxation.iterations,
+        subproblems,
+        improved,
+    }
+}
+
+/// The setups a subproblem leaves free.
+enum Free {
+    /// Receipt buckets `a..b` of every item.
+    Buckets(usize, usize),
+    /// Items `a..b` of the group, every bucket.
+    Items(usize, usize),
+}
+
+impl Free {
+    fn contains(&self, k: usize, j: usize) -> bool {
+        match *self {
+            Free::Buckets(a, b) => (a..b).contains(&j),
+            Free::Items(a, b) => (a..b).contains(&k),
+        }
+    }
+}
+
+/// Load beyond capacity and overtime, summed over resources and buckets.
+fn overload(frame: &Frame, scenario: &Scenario, resources: &[usize], receipts: &[Vec<f64>]) -> f64 {
+    let load = frame.load(receipts);
+    let mut over = 0.0;
+    for (r, &resource) in resources.iter().enumerate() {
+        let resource = &scenario.resources[resource];
+        for (t, &l) in load[r].iter().enumerate() {
+            let limit = resource.capacity[t] + resource.overtime_capacity[t];
+            let excess = l - limit;
+            if excess > 1e-9 * limit.abs().max(1.0) {
+                over += excess;
+            }
+        }
+    }
+    over
+}
+
+/// A price per unit of capacity beyond what any plan would pay to save it:
+/// ten times a setup plus a unit made and held over the whole horizon, per
+/// unit of the least time a unit or a setup takes.
+fn overload_price(scenario: &Scenario, items: &[usize]) -> f64 {
+    let mut worth: f64 = 1.0;
+    let mut least_time = f64::INFINITY;
+    for &i in items {
+        let item = &scenario.items[i];
+        let setup = item.setup_cost.iter().copied().fold(0.0, f64::max);
+        let unit = item.unit_cost.iter().copied().fold(0.0, f64::max);
+        let held: f64 = item.holding_cost.iter().sum();
+        worth = worth.max(setup + unit + held);
+        for routing in scenario.routings_of(i) {
+            for time in [routing.per_unit, routing.setup_time] {
+                if time > 0.0 {
+                    least_time = least_time.min(time);
+                }
+            }
+        }
+    }
+    let least_time = if least_time.is_finite() {
+        least_time
+    } else {
+        1.0
+    };
+    10.0 * worth / least_time
+}
+
+fn no_plan(items: usize, periods: usize, started: Instant, status: MilpStatus) -> MilpResult {
+    MilpResult {
+        status,
+        receipts: vec![vec![0.0; periods]; items],
+        objective: f64::INFINITY,
+        solver_objective: f64::INFINITY,
+        lower_bound: f64::NEG_INFINITY,
+        seconds: started.elapsed().as_secs_f64(),
+        hit_time_limit: false,
+        shortfall: Vec::new(),
+    }
+}

@@ -1,0 +1,462 @@
+//! Lagrangean relaxation of the capacity rows, after J. Trigeiro, L. J.
+//! Thomas and J. O. McClain (1989), "Capacitated lot sizing with setup
+//! times", Management Science 35(3): with a price `lambda[r][t] >= 0` on each
+//! capacity row, the group falls apart into one uncapacitated item per
+//! subproblem, solved exactly by the single-item dynamic program with the
+//! capacity priced into its unit and setup costs. Every price vector gives a
+//! lower bound on the least cost; subgradient steps raise it. A smoothing
+//! heuristic (a backward pass that moves production out of overloaded
+//! buckets into earlier ones) turns the subproblems' plans into plans within
+//! capacity.
+//!
+//! The relaxation also drops the lot constraints and the capacity bound of
+//! each bucket, so its bound is valid whatever the items carry; it is never
+//! above the LP bound of the facility-location model (Pochet and Wolsey,
+//! "Production Planning by Mixed Integer Programming", Springer 2006,
+//! ch. 7), whose single-item polytope is the convex hull of the
+//! uncapacitated problem.
+
+use std::time::Instant;
+
+use crate::eval::{evaluate, quantity_tolerance};
+use crate::model::{Item, Plan, Scenario};
+use crate::single::fast;
+
+/// What the relaxation found.
+#[derive(Debug, Clone)]
+pub struct Relaxation {
+    /// The best proven lower bound (every cost included).
+    pub lower_bound: f64,
+    pub iterations: usize,
+    /// The best plan within capacity the smoothing found, with its cost
+    /// (receipts by item of the group).
+    pub best_plan: Option<(Vec<Vec<f64>>, f64)>,
+    /// The subproblems' receipts at the best bound: cheap but may overload.
+    pub pattern: Vec<Vec<f64>>,
+}
+
+/// One item of the group: its costs before pricing and its routes.
+struct Member {
+    base: Item,
+    priced: Item,
+    /// (resource of the group, per-unit use, setup time).
+    routes: Vec<(usize, f64, f64)>,
+}
+
+/// The group's data in the relaxation's own terms.
+pub(crate) struct Frame {
+    members: Vec<Member>,
+    /// Capacity, overtime capacity by resource of the group and bucket.
+    capacity: Vec<Vec<f64>>,
+    overtime: Vec<Vec<f64>>,
+    overtime_cost: Vec<f64>,
+    periods: usize,
+}
+
+impl Frame {
+    pub(crate) fn new(scenario: &Scenario, items: &[usize], resources: &[usize]) -> Frame {
+        let members = items
+            .iter()
+            .map(|&i| {
+                let routes = scenario
+                    .routings_of(i)
+                    .filter_map(|x| {
+                        let r = resources.iter().position(|&r| r == x.resource)?;
+                        Some((r, x.per_unit, x.setup_time))
+                    })
+                    .collect();
+                Member {
+                    base: scenario.items[i].clone(),
+                    priced: scenario.items[i].clone(),
+                    routes,
+                }
+            })
+            .collect();
+        Frame {
+            members,
+            capacity: resources
+                .iter()
+                .map(|&r| scenario.resources[r].capacity.clone())
+                .collect(),
+            overtime: resources
+                .iter()
+                .map(|&r| scenario.resources[r].overtime_capacity.clone())
+                .collect(),
+            overtime_cost: resources
+                .iter()
+                .map(|&r| scenario.resources[r].overtime_cost)
+                .collect(),
+            periods: scenario.periods(),
+        }
+    }
+
+    /// Load by resource of the group and release bucket of these receipts.
+    pub(crate) fn load(&self, receipts: &[Vec<f64>]) -> Vec<Vec<f64>> {
+        let mut load = vec![vec![0.0; self.periods]; self.capacity.len()];
+        for (member, received) in self.members.iter().zip(receipts) {
+            let lead = member.base.lead_time;
+            let tolerance = quantity_tolerance(&member.base);
+            for (j, &q) in received.iter().enumerate().skip(lead) {
+                if q <= tolerance {
+                    continue;
+                }
+                for &(r, per_unit, setup_time) in &member.routes {
+                    load[r][j - lead] += per_unit * q + setup_time;
+                }
+            }
+        }
+        load
+    }
+}
+
+/// Raises the Lagrangean bound by subgradient steps until `deadline`, at
+/// most `iterations` steps, or until the step size has shrunk to nothing.
+/// `None` when an item has no plan even without capacity (need before its
+/// lead time has passed).
+pub fn relax(
+    scenario: &Scenario,
+    items: &[usize],
+    resources: &[usize],
+    deadline: Instant,
+    iterations: usize,
+) -> Option<Relaxation> {
+    let mut frame = Frame::new(scenario, items, resources);
+    let subset = scenario.subset(items);
+    let rows = frame.capacity.len();
+    let periods = frame.periods;
+    let mut price = vec![vec![0.0; periods]; rows];
+    let mut best_bound = f64::NEG_INFINITY;
+    let mut best_plan: Option<(Vec<Vec<f64>>, f64)> = None;
+    let mut pattern = Vec::new();
+    let mut step = 1.0;
+    let mut stalled = 0;
+    let mut done = 0;
+    while done < iterations && Instant::now() < deadline && step > 1e-4 {
+        done += 1;
+        let (receipts, bound) = subproblems(&mut frame, &price)?;
+        if bound > best_bound + 1e-9 * bound.abs().max(1.0) {
+            best_bound = bound;
+            pattern = receipts.clone();
+            stalled = 0;
+        } else {
+            stalled += 1;
+            if stalled >= 10 {
+                step /= 2.0;
+                stalled = 0;
+            }
+        }
+        if done % 3 == 1 {
+            if let Some(smoothed) = smooth(&frame, &receipts) {
+                let cost = evaluate(
+                    &subset,
+                    &Plan {
+                        receipts: smoothed.clone(),
+                    },
+                );
+                if cost.feasible
+                    && best_plan
+                        .as_ref()
+                        .is_none_or(|(_, best)| cost.total_cost() < *best)
+                {
+                    best_plan = Some((smoothed, cost.total_cost()));
+                }
+            }
+        }
+        // The subgradient: load beyond capacity (and beyond overtime where
+        // the price makes overtime worth buying).
+        let load = frame.load(&receipts);
+        let mut gradient = vec![vec![0.0; periods]; rows];
+        let mut norm = 0.0;
+        for r in 0..rows {
+            for t in 0..periods {
+                let mut g = load[r][t] - frame.capacity[r][t];
+                if price[r][t] > frame.overtime_cost[r] {
+                    g -= frame.overtime[r][t];
+                }
+                if price[r][t] <= 0.0 && g < 0.0 {
+                    g = 0.0;
+                }
+                gradient[r][t] = g;
+                norm += g * g;
+            }
+        }
+        if norm <= 1e-12 {
+            // Within capacity at these prices with nothing to complain of:
+            // the bound cannot rise further along the subgradient.
+            break;
+        }
+        let target = match &best_plan {
+            Some((_, cost)) => *cost,
+            None => best_bound + 0.05 * best_bound.abs().max(1.0),
+        };
+        let length = step * (target - bound).max(1e-6 * bound.abs().max(1.0)) / norm;
+        for r in 0..rows {
+            for t in 0..periods {
+                price[r][t] = (price[r][t] + length * gradient[r][t]).max(0.0);
+            }
+        }
+    }
+    Some(Relaxation {
+        lower_bound: best_bound,
+        iterations: done,
+        best_plan,
+        pattern,
+    })
+}
+
+/// Solves every item at these prices; returns the receipts and the
+/// Lagrangean bound.
+#[allow(clippy::needless_range_loop)]
+fn subproblems(frame: &mut Frame, price: &[Vec<f64>]) -> Option<(Vec<Vec<f64>>, f64)> {
+    let periods = frame.periods;
+    let mut bound = 0.0;
+    let mut receipts = Vec::with_capacity(frame.members.len());
+    for member in &mut frame.members {
+        for t in 0..periods {
+            let mut setup = member.base.setup_cost[t];
+            let mut unit = member.base.unit_cost[t];
+            for &(r, per_unit, setup_time) in &member.routes {
+                setup += price[r][t] * setup_time;
+                unit += price[r][t] * per_unit;
+            }
+            member.priced.setup_cost[t] = setup;
+            member.priced.unit_cost[t] = unit;
+        }
+        let solved = fast::solve(&member.priced)?;
+        bound += solved.cost;
+        receipts.push(solved.receipts);
+    }
+    for r in 0..frame.capacity.len() {
+        for t in 0..periods {
+            bound -= price[r][t] * frame.capacity[r][t];
+            let overtime_gain = price[r][t] - frame.overtime_cost[r];
+            if overtime_gain > 0.0 {
+                bound -= overtime_gain * frame.overtime[r][t];
+            }
+        }
+    }
+    Some((receipts, bound))
+}
+
+/// The smoothing heuristic. A forward pass moves production out of
+/// overloaded buckets into the next one where stock already covers the
+/// need; a backward pass, from the last bucket to the second, moves what is
+/// still too much one bucket earlier. Each move takes the item whose move
+/// costs least per unit of capacity it frees, merging into an existing lot
+/// before opening one (a new lot costs setup time too). `None` when the
+/// first bucket stays overloaded.
+pub(crate) fn smooth(frame: &Frame, receipts: &[Vec<f64>]) -> Option<Vec<Vec<f64>>> {
+    let periods = frame.periods;
+    let mut state = Smoothing {
+        frame,
+        release: frame
+            .members
+            .iter()
+            .zip(receipts)
+            .map(|(m, q)| {
+                let lead = m.base.lead_time;
+                (0..periods)
+                    .map(|t| if t + lead < periods { q[t + lead] } else { 0.0 })
+                    .collect()
+            })
+            .collect(),
+        load: frame.load(receipts),
+        on_hand: frame
+            .members
+            .iter()
+            .zip(receipts)
+            .map(|(m, q)| {
+                let mut stock = m.base.initial_stock;
+                (0..periods)
+                    .map(|j| {
+                        stock += m.base.receipts[j] + q[j] - m.base.demand[j];
+                        stock
+                    })
+                    .collect()
+            })
+            .collect(),
+    };
+    let rows = frame.capacity.len();
+    for t in 0..periods.saturating_sub(1) {
+        for r in 0..rows {
+            while state.excess(r, t) > 0.0 {
+                let Some((k, amount, to)) = state.choose(r, t, true) else {
+                    break;
+                };
+                state.shift(k, t, to, amount);
+            }
+        }
+    }
+    for t in (1..periods).rev() {
+        for r in 0..rows {
+            while state.excess(r, t) > 0.0 {
+                let (k, amount, to) = state.choose(r, t, false)?;
+                state.shift(k, t, to, amount);
+            }
+        }
+    }
+    if (0..rows).any(|r| state.excess(r, 0) > 0.0) {
+        return None;
+    }
+    Some(
+        frame
+            .members
+            .iter()
+            .zip(&state.release)
+            .map(|(m, rel)| {
+                let lead = m.base.lead_time;
+                (0..periods)
+                    .map(|j| if j >= lead { rel[j - lead] } else { 0.0 })
+                    .collect()
+            })
+            .collect(),
+    )
+}
+
+/// The plan being smoothed, by release bucket, with its load and the stock
+/// on hand at the end of each receipt bucket.
+struct Smoothing<'a> {
+    frame: &'a Frame,
+    release: Vec<Vec<f64>>,
+    load: Vec<Vec<f64>>,
+    on_hand: Vec<Vec<f64>>,
+}
+
+impl Smoothing<'_> {
+    /// Load beyond capacity and overtime (0 within a relative 1e-9).
+    fn excess(&self, r: usize, t: usize) -> f64 {
+        let limit = self.frame.capacity[r][t] + self.frame.overtime[r][t];
+        let excess = self.load[r][t] - limit;
+        if excess > 1e-9 * limit.abs().max(1.0) {
+            excess
+        } else {
+            0.0
+        }
+    }
+
+    /// The item, amount and bucket to move production released in bucket
+    /// `t` to, to relieve resource `r`: one bucket later (`later`), where
+    /// stock at hand covers the need and a lot of the item is already
+    /// released there or the whole lot moves; or earlier, into the item's
+    /// latest earlier lot, or the bucket before when it has none.
+    fn choose(&self, r: usize, t: usize, later: bool) -> Option<(usize, f64, usize)> {
+        let excess = self.excess(r, t);
+        let periods = self.frame.periods;
+        self.frame
+            .members
+            .iter()
+            .enumerate()
+            .filter_map(|(k, m)| {
+                let item = &m.base;
+                let tolerance = quantity_tolerance(item);
+                let q = self.release[k][t];
+                let &(_, per_unit, setup_time) = m.routes.iter().find(|x| x.0 == r)?;
+                if q <= tolerance {
+                    return None;
+                }
+                let j = t + item.lead_time;
+                let (to, movable) = if later {
+                    if j + 1 >= periods {
+                        return None;
+                    }
+                    let covered = (self.on_hand[k][j] - item.stock_floor(j).max(0.0)).min(q);
+                    (t + 1, covered)
+                } else {
+                    // The latest earlier bucket with room on every resource
+                    // of the item; the bucket before when none has any (its
+                    // excess then moves on).
+                    (0..t)
+                        .rev()
+                        .find_map(|s| {
+                            let room = self.room(k, s);
+                            (room > tolerance).then_some((s, room.min(q)))
+                        })
+                        .unwrap_or((t - 1, q))
+                };
+                if movable <= tolerance {
+                    return None;
+                }
+                let partial = if per_unit > 0.0 {
+                    (excess / per_unit).min(movable)
+                } else {
+                    movable
+                };
+                let opens = self.release[k][to] <= tolerance;
+                let carrying: f64 = if later {
+                    -item.holding_cost[j]
+                } else {
+                    item.holding_cost[to + item.lead_time..j].iter().sum()
+                };
+                // Part of the lot, just enough, or all of it (which frees
+                // its setup time as well).
+                let option = |amount: f64| {
+                    let whole = amount >= q - tolerance;
+                    let mut cost = amount * (carrying + item.unit_cost[to] - item.unit_cost[t]);
+                    if opens {
+                        cost += item.setup_cost[to];
+                    }
+                    if whole {
+                        cost -= item.setup_cost[t];
+                    }
+                    let freed = per_unit * amount + if whole { setup_time } else { 0.0 };
+                    (freed > 0.0).then_some((opens, cost / freed, k, amount, to))
+                };
+                let whole = (movable >= q - tolerance).then(|| option(q)).flatten();
+                let part = option(partial);
+                match (whole, part) {
+                    (Some(a), Some(b)) => Some(if (a.0, a.1) <= (b.0, b.1) { a } else { b }),
+                    (a, b) => a.or(b),
+                }
+            })
+            .min_by(|a, b| a.0.cmp(&b.0).then(a.1.total_cmp(&b.1)).then(a.2.cmp(&b.2)))
+            .map(|(_, _, k, amount, to)| (k, amount, to))
+    }
+
+    /// How much of item `k` release bucket `s` can still take within
+    /// capacity and overtime on every resource it uses (a new lot's setup
+    /// time included).
+    fn room(&self, k: usize, s: usize) -> f64 {
+        let member = &self.frame.members[k];
+        let opens = self.release[k][s] <= quantity_tolerance(&member.base);
+        member
+            .routes
+            .iter()
+            .map(|&(r, per_unit, setup_time)| {
+                let limit = self.frame.capacity[r][s] + self.frame.overtime[r][s];
+                let free = limit - self.load[r][s] - if opens { setup_time } else { 0.0 };
+                if per_unit > 0.0 {
+                    free / per_unit
+                } else if free >= 0.0 {
+                    f64::INFINITY
+                } else {
+                    0.0
+                }
+            })
+            .fold(f64::INFINITY, f64::min)
+    }
+
+    /// Moves `amount` of item `k` from release bucket `t` to `to`.
+    fn shift(&mut self, k: usize, t: usize, to: usize, amount: f64) {
+        let member = &self.frame.members[k];
+        let tolerance = quantity_tolerance(&member.base);
+        let opened = self.release[k][to] <= tolerance;
+        self.release[k][t] -= amount;
+        self.release[k][to] += amount;
+        let closed = self.release[k][t] <= tolerance;
+        if closed {
+            self.release[k][t] = 0.0;
+        }
+        let (lead, j) = (member.base.lead_time, t + member.base.lead_time);
+        if to > t {
+            self.on_hand[k][j] -= amount;
+        } else {
+            for stock in &mut self.on_hand[k][to + lead..j] {
+                *stock += amount;
+            }
+        }
+        for &(s, per_unit, setup_time) in &member.routes {
+            self.load[s][t] -= per_unit * amount + if closed { setup_time } else { 0.0 };
+            self.load[s][to] += per_unit * amount + if opened { setup_time } else { 0.0 };
+        }
+    }
+}
