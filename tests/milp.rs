@@ -278,3 +278,77 @@ fn overtime_is_used_and_costed() {
     assert!(close(result.objective, 1010.0));
     assert_objective_is_evaluation(&s, &result);
 }
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 30, ..ProptestConfig::default() })]
+
+    /// Whole quantities and costs in cents: the optimum is proven on the
+    /// cost grid (a gap below one cent), and it is the exhaustive search's
+    /// least cost to the cent.
+    #[test]
+    fn optimality_on_the_cost_grid_is_exact(
+        n in 2usize..4,
+        demand in prop::collection::vec(0u32..3, 9),
+        setups in prop::collection::vec(100u32..2000, 3),
+        holding in prop::collection::vec(1u32..150, 3),
+        setup_time in prop::collection::vec(0u32..3, 3),
+        capacity in 3u32..8,
+    ) {
+        let periods = 3;
+        let items: Vec<Item> = (0..n)
+            .map(|i| {
+                let d: Vec<f64> = demand[i * periods..(i + 1) * periods].iter().map(|&x| x as f64).collect();
+                let mut it = item(&format!("I{i}"), &d, setups[i] as f64 / 100.0, holding[i] as f64 / 100.0);
+                it.lot_multiple = Some(1.0);
+                it
+            })
+            .collect();
+        let routings = (0..n)
+            .map(|i| Routing { item: i, resource: 0, per_unit: 1.0, setup_time: setup_time[i] as f64 })
+            .collect();
+        let s = scenario(items, vec![resource(capacity as f64, periods)], routings);
+        let all: Vec<usize> = (0..n).collect();
+        let grid = milp::cost_grid(&s, &all).expect("whole quantities, costs in cents");
+        prop_assert!(grid == 0.01 || grid == 0.1 || grid == 1.0, "grid {}", grid);
+        let result = solve_all(&s);
+        match exhaustive(&s) {
+            None => prop_assert_eq!(result.status, MilpStatus::Infeasible),
+            Some(best) => {
+                prop_assert_eq!(result.status, MilpStatus::Optimal);
+                prop_assert!((best - result.objective).abs() < 0.005, "exhaustive {} milp {}", best, result.objective);
+                assert_objective_is_evaluation(&s, &result);
+            }
+        }
+    }
+}
+
+/// The grid exists only when every quantity is whole and every cost lies
+/// on a decimal step.
+#[test]
+fn the_cost_grid_needs_whole_quantities_and_decimal_costs() {
+    let mut it = item("A", &[3.0, 0.0, 4.0], 12.5, 0.25);
+    let one = |it: &Item| scenario(vec![it.clone()], vec![], vec![]);
+    assert_eq!(
+        milp::cost_grid(&one(&it), &[0]),
+        None,
+        "no lot multiple: quantities may be fractional"
+    );
+    it.lot_multiple = Some(1.0);
+    assert_eq!(milp::cost_grid(&one(&it), &[0]), Some(0.01));
+    it.setup_cost = vec![12.0; 3];
+    it.holding_cost = vec![1.0; 3];
+    assert_eq!(milp::cost_grid(&one(&it), &[0]), Some(1.0));
+    it.demand[1] = 0.5;
+    assert_eq!(
+        milp::cost_grid(&one(&it), &[0]),
+        None,
+        "half a unit of demand"
+    );
+    it.demand[1] = 0.0;
+    it.holding_cost[2] = 1.0 / 3.0;
+    assert_eq!(
+        milp::cost_grid(&one(&it), &[0]),
+        None,
+        "a third has no decimal step"
+    );
+}

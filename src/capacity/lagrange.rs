@@ -336,9 +336,9 @@ impl Smoothing<'_> {
 
     /// The item, amount and bucket to move production released in bucket
     /// `t` to, to relieve resource `r`: one bucket later (`later`), where
-    /// stock at hand covers the need and a lot of the item is already
-    /// released there or the whole lot moves; or earlier, into the item's
-    /// latest earlier lot, or the bucket before when it has none.
+    /// stock at hand covers the need; or earlier, into the latest bucket
+    /// with room, else the item's latest earlier lot, else the bucket
+    /// before.
     fn choose(&self, r: usize, t: usize, later: bool) -> Option<(usize, f64, usize)> {
         let excess = self.excess(r, t);
         let periods = self.frame.periods;
@@ -355,58 +355,76 @@ impl Smoothing<'_> {
                     return None;
                 }
                 let j = t + item.lead_time;
-                let (to, movable) = if later {
+                let has_lot = |s: usize| self.release[k][s] > tolerance;
+                // Where the production may go, and how much of it fits.
+                let targets: Vec<(usize, f64)> = if later {
                     if j + 1 >= periods {
                         return None;
                     }
                     let covered = (self.on_hand[k][j] - item.stock_floor(j).max(0.0)).min(q);
-                    (t + 1, covered)
+                    vec![(t + 1, covered)]
                 } else {
-                    // The latest earlier bucket with room on every resource
-                    // of the item; the bucket before when none has any (its
-                    // excess then moves on).
-                    (0..t)
-                        .rev()
-                        .find_map(|s| {
+                    // The latest earlier lot of the item with room, and the
+                    // latest earlier bucket with room for a new lot (setup
+                    // time included); with room nowhere, the latest lot
+                    // (a merge saves a setup) or the bucket before, whose
+                    // excess then moves on.
+                    let with_room = |lot: bool| {
+                        (0..t).rev().find_map(|s| {
                             let room = self.room(k, s);
-                            (room > tolerance).then_some((s, room.min(q)))
+                            (has_lot(s) == lot && room > tolerance).then_some((s, room.min(q)))
                         })
-                        .unwrap_or((t - 1, q))
-                };
-                if movable <= tolerance {
-                    return None;
-                }
-                let partial = if per_unit > 0.0 {
-                    (excess / per_unit).min(movable)
-                } else {
-                    movable
-                };
-                let opens = self.release[k][to] <= tolerance;
-                let carrying: f64 = if later {
-                    -item.holding_cost[j]
-                } else {
-                    item.holding_cost[to + item.lead_time..j].iter().sum()
-                };
-                // Part of the lot, just enough, or all of it (which frees
-                // its setup time as well).
-                let option = |amount: f64| {
-                    let whole = amount >= q - tolerance;
-                    let mut cost = amount * (carrying + item.unit_cost[to] - item.unit_cost[t]);
-                    if opens {
-                        cost += item.setup_cost[to];
+                    };
+                    let found: Vec<(usize, f64)> = [with_room(true), with_room(false)]
+                        .into_iter()
+                        .flatten()
+                        .collect();
+                    if found.is_empty() {
+                        let lot = (0..t).rev().find(|&s| has_lot(s));
+                        vec![(lot.unwrap_or(t - 1), q)]
+                    } else {
+                        found
                     }
-                    if whole {
-                        cost -= item.setup_cost[t];
-                    }
-                    let freed = per_unit * amount + if whole { setup_time } else { 0.0 };
-                    (freed > 0.0).then_some((opens, cost / freed, k, amount, to))
                 };
-                let whole = (movable >= q - tolerance).then(|| option(q)).flatten();
-                let part = option(partial);
-                match (whole, part) {
-                    (Some(a), Some(b)) => Some(if (a.0, a.1) <= (b.0, b.1) { a } else { b }),
-                    (a, b) => a.or(b),
+                let mut best: Option<(bool, f64, usize, f64, usize)> = None;
+                for (to, movable) in targets {
+                    if movable <= tolerance {
+                        continue;
+                    }
+                    let partial = if per_unit > 0.0 {
+                        (excess / per_unit).min(movable)
+                    } else {
+                        movable
+                    };
+                    let opens = !has_lot(to);
+                    let carrying: f64 = if later {
+                        -item.holding_cost[j]
+                    } else {
+                        item.holding_cost[to + item.lead_time..j].iter().sum()
+                    };
+                    // Part of the lot, just enough, or all of it (which
+                    // frees its setup time as well).
+                    let amounts = [Some(partial), (movable >= q - tolerance).then_some(q)];
+                    for amount in amounts.into_iter().flatten() {
+                        let whole = amount >= q - tolerance;
+                        let mut cost = amount * (carrying + item.unit_cost[to] - item.unit_cost[t]);
+                        if opens {
+                            cost += item.setup_cost[to];
+                        }
+                        if whole {
+                            cost -= item.setup_cost[t];
+                        }
+                        let freed = per_unit * amount + if whole { setup_time } else { 0.0 };
+                        if freed <= 0.0 {
+                            continue;
+                        }
+                        let option = (opens, cost / freed, k, amount, to);
+                        if best.is_none_or(|b| (option.0, option.1) < (b.0, b.1)) {
+                            best = Some(option);
+                        }
+                    }
                 }
+                best
             })
             .min_by(|a, b| a.0.cmp(&b.0).then(a.1.total_cmp(&b.1)).then(a.2.cmp(&b.2)))
             .map(|(_, _, k, amount, to)| (k, amount, to))

@@ -282,7 +282,13 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     }
     model.set_option("time_limit", options.time_limit.max(0.01));
     model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.99));
-    model.set_option("mip_abs_gap", 1e-9);
+    // On a cost grid a gap below one step proves optimality (PRODUCT.md).
+    let grid = if options.extra_capacity || options.elastic.is_some() {
+        None
+    } else {
+        cost_grid(scenario, items)
+    };
+    model.set_option("mip_abs_gap", grid.map_or(1e-9, |g| g * 0.99));
     model.set_option("random_seed", 1);
     if options.start.is_some() {
         // Only the integer columns are given; HiGHS finds the rest by
@@ -373,7 +379,9 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     } else {
         objective_value - dual_bound
     };
-    let proven = matches!(status, HighsModelStatus::Optimal) && gap <= OPTIMALITY_GAP;
+    let below_grid = grid.is_some_and(|g| objective_value - dual_bound < g * 0.99 + 1e-9);
+    let proven =
+        matches!(status, HighsModelStatus::Optimal) && (gap <= OPTIMALITY_GAP || below_grid);
     let shortfall = slacks
         .iter()
         .map(|&(r, t, v)| (r, t, values[index[&v]]))
@@ -400,6 +408,50 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
         hit_time_limit,
         shortfall,
     }
+}
+
+/// The step every plan's cost of these items moves in, when there is one:
+/// every quantity whole (a whole lot multiple on every item; whole demand,
+/// stock, receipts and floors) and every cost a whole number of steps of
+/// 10^-d for some d up to 6 (cents: d = 2). With overtime on a resource,
+/// per-unit and setup times and capacities must be whole as well, so that
+/// the overtime a plan needs is whole. Then two plans' costs differ by at
+/// least one step, and a gap below it proves optimality.
+pub fn cost_grid(scenario: &Scenario, items: &[usize]) -> Option<f64> {
+    let whole = |x: f64| (x - x.round()).abs() <= 1e-9 * x.abs().max(1.0);
+    let mut costs: Vec<f64> = Vec::new();
+    for &i in items {
+        let item = &scenario.items[i];
+        let multiple = item.lot_multiple?;
+        let quantities = item.demand.iter().chain(&item.receipts).chain([
+            &multiple,
+            &item.initial_stock,
+            &item.safety_stock,
+            &item.ending_stock,
+        ]);
+        if !quantities.into_iter().all(|&q| whole(q)) {
+            return None;
+        }
+        costs.extend(&item.setup_cost);
+        costs.extend(&item.unit_cost);
+        costs.extend(&item.holding_cost);
+        costs.extend(item.backlog_cost);
+        for routing in scenario.routings_of(i) {
+            let resource = &scenario.resources[routing.resource];
+            if resource.overtime_capacity.iter().any(|&o| o > 0.0) {
+                let times = [routing.per_unit, routing.setup_time];
+                let limits = resource.capacity.iter().chain(&resource.overtime_capacity);
+                if !times.iter().chain(limits).all(|&x| whole(x)) {
+                    return None;
+                }
+                costs.push(resource.overtime_cost);
+            }
+        }
+    }
+    (0..=6).find_map(|d| {
+        let scale = 10f64.powi(d);
+        costs.iter().all(|&c| whole(c * scale)).then(|| 1.0 / scale)
+    })
 }
 
 /// Column values looked up by variable, to evaluate expressions.
