@@ -222,6 +222,49 @@ pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions, search: 
     }
 }
 
+/// A plan within capacity to start the full MILP from, if a quick search
+/// finds one: the cheaper of the smoothing heuristic's best plan (from at
+/// most `seconds` of the Lagrangean relaxation) and the cheapest lot rule
+/// whose plan fits. `None` when neither fits.
+pub fn start_plan(scenario: &Scenario, group: &Group, seconds: f64) -> Option<Vec<Vec<f64>>> {
+    use crate::single::rules::{self, Rule, Sizing};
+    let subset = scenario.subset(&group.items);
+    let mut best: Option<(f64, Vec<Vec<f64>>)> = None;
+    let mut consider = |receipts: Vec<Vec<f64>>| {
+        let evaluation = evaluate(
+            &subset,
+            &Plan {
+                receipts: receipts.clone(),
+            },
+        );
+        if evaluation.feasible
+            && best
+                .as_ref()
+                .is_none_or(|(c, _)| evaluation.total_cost() < *c)
+        {
+            best = Some((evaluation.total_cost(), receipts));
+        }
+    };
+    for rule in Rule::ALL {
+        consider(
+            subset
+                .items
+                .iter()
+                .map(|item| rules::plan(item, Sizing::Rule(rule)))
+                .collect(),
+        );
+    }
+    let deadline = Instant::now() + Duration::from_secs_f64(seconds.max(0.0));
+    if let Some(relaxation) =
+        lagrange::relax(scenario, &group.items, &group.resources, deadline, 300)
+    {
+        if let Some((receipts, _)) = relaxation.best_plan {
+            consider(receipts);
+        }
+    }
+    best.map(|(_, receipts)| receipts)
+}
+
 /// The setups a subproblem leaves free.
 enum Free {
     /// Receipt buckets `a..b` of every item.

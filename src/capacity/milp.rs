@@ -298,6 +298,7 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
             start[index[v]] = *value;
         }
         // A start HiGHS cannot use is only a lost head start.
+        // (HiGHS logs "MIP start solution is feasible" when it takes it.)
         let _ = model.try_set_solution(Some(&start), None, None, None);
     }
     if let Some(threads) = options.threads {
