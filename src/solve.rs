@@ -457,9 +457,8 @@ fn solve_group(
             GroupSolver::Milp | GroupSolver::Auto => {
                 component.solver = "milp";
                 // A plan that fits, if a quick search finds one, is HiGHS's
-                // first incumbent (at most 5 % of the time, 1 s).
-                let quick = (limits.time_limit * 0.05).min(1.0);
-                let start = capacity::fix_optimize::start_plan(scenario, group, quick);
+                // first incumbent.
+                let start = capacity::fix_optimize::start_plan(scenario, group);
                 if std::env::var_os("LOTWRIGHT_TRACE").is_some() {
                     eprintln!("milp start plan found: {}", start.is_some());
                 }

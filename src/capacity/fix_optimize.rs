@@ -222,11 +222,15 @@ pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions, search: 
     }
 }
 
+/// Subgradient steps `start_plan` takes: a count, not a time, so that the
+/// start and with it the MILP's path repeat on every run.
+const START_STEPS: usize = 100;
+
 /// A plan within capacity to start the full MILP from, if a quick search
-/// finds one: the cheaper of the smoothing heuristic's best plan (from at
-/// most `seconds` of the Lagrangean relaxation) and the cheapest lot rule
-/// whose plan fits. `None` when neither fits.
-pub fn start_plan(scenario: &Scenario, group: &Group, seconds: f64) -> Option<Vec<Vec<f64>>> {
+/// finds one: the cheaper of the smoothing heuristic's best plan (over
+/// `START_STEPS` steps of the Lagrangean relaxation) and the cheapest lot
+/// rule whose plan fits. `None` when neither fits.
+pub fn start_plan(scenario: &Scenario, group: &Group) -> Option<Vec<Vec<f64>>> {
     use crate::single::rules::{self, Rule, Sizing};
     let subset = scenario.subset(&group.items);
     let mut best: Option<(f64, Vec<Vec<f64>>)> = None;
@@ -254,10 +258,15 @@ pub fn start_plan(scenario: &Scenario, group: &Group, seconds: f64) -> Option<Ve
                 .collect(),
         );
     }
-    let deadline = Instant::now() + Duration::from_secs_f64(seconds.max(0.0));
-    if let Some(relaxation) =
-        lagrange::relax(scenario, &group.items, &group.resources, deadline, 300)
-    {
+    // The deadline only guards against a pathological group.
+    let deadline = Instant::now() + Duration::from_secs(10);
+    if let Some(relaxation) = lagrange::relax(
+        scenario,
+        &group.items,
+        &group.resources,
+        deadline,
+        START_STEPS,
+    ) {
         if let Some((receipts, _)) = relaxation.best_plan {
             consider(receipts);
         }
