@@ -333,14 +333,5 @@ fn overload_price(scenario: &Scenario, items: &[usize]) -> f64 {
 }
 
 fn no_plan(items: usize, periods: usize, started: Instant, status: MilpStatus) -> MilpResult {
-    MilpResult {
-        status,
-        receipts: vec![vec![0.0; periods]; items],
-        objective: f64::INFINITY,
-        solver_objective: f64::INFINITY,
-        lower_bound: f64::NEG_INFINITY,
-        seconds: started.elapsed().as_secs_f64(),
-        hit_time_limit: false,
-        shortfall: Vec::new(),
-    }
+    MilpResult::without_plan(status, periods, items, started)
 }

@@ -476,15 +476,27 @@ impl good_lp::Solution for Values<'_> {
 }
 
 fn failed(periods: usize, items: usize, started: Instant) -> MilpResult {
-    MilpResult {
-        status: MilpStatus::NoPlan,
-        receipts: vec![vec![0.0; periods]; items],
-        objective: f64::INFINITY,
-        solver_objective: f64::INFINITY,
-        lower_bound: f64::NEG_INFINITY,
-        seconds: started.elapsed().as_secs_f64(),
-        hit_time_limit: false,
-        shortfall: Vec::new(),
+    MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started)
+}
+
+impl MilpResult {
+    /// A result with no plan (infinite cost, no bound) and this status.
+    pub(crate) fn without_plan(
+        status: MilpStatus,
+        periods: usize,
+        items: usize,
+        started: Instant,
+    ) -> MilpResult {
+        MilpResult {
+            status,
+            receipts: vec![vec![0.0; periods]; items],
+            objective: f64::INFINITY,
+            solver_objective: f64::INFINITY,
+            lower_bound: f64::NEG_INFINITY,
+            seconds: started.elapsed().as_secs_f64(),
+            hit_time_limit: false,
+            shortfall: Vec::new(),
+        }
     }
 }
 

@@ -6,6 +6,7 @@ pub mod fix_optimize;
 pub mod lagrange;
 pub mod milp;
 pub mod single_dp;
+mod smoothing;
 
 use crate::model::Scenario;
 
