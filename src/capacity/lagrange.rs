@@ -145,7 +145,9 @@ pub fn relax(
                 stalled = 0;
             }
         }
-        if done % 3 == 1 {
+        // Smoothing costs far more than a step (it scans earlier buckets
+        // for room); every tenth step is tried.
+        if done % 10 == 1 {
             if let Some(smoothed) = super::smoothing::smooth(&frame, &receipts) {
                 let cost = evaluate(
                     &subset,

@@ -356,37 +356,14 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
             .map(|b| b + constant)
             .unwrap_or(f64::NEG_INFINITY)
     };
+    let solution_values = Values {
+        columns: values,
+        index: &index,
+    };
     let receipts: Vec<Vec<f64>> = columns
         .iter()
         .zip(items)
-        .map(|(c, &i)| {
-            let item = &scenario.items[i];
-            c.quantity
-                .iter()
-                .map(|q| {
-                    snap(
-                        item,
-                        q.eval_with(&Values {
-                            columns: values,
-                            index: &index,
-                        }),
-                    )
-                })
-                .collect()
-        })
-        .collect();
-    let gap = if objective_value.abs() > 1e-9 {
-        (objective_value - dual_bound) / objective_value.abs()
-    } else {
-        objective_value - dual_bound
-    };
-    let below_grid = grid.is_some_and(|g| objective_value - dual_bound < g * 0.99 + 1e-9);
-    let proven =
-        matches!(status, HighsModelStatus::Optimal) && (gap <= OPTIMALITY_GAP || below_grid);
-    let shortfall = slacks
-        .iter()
-        .map(|&(r, t, v)| (r, t, values[index[&v]]))
-        .filter(|&(_, _, amount)| amount > 1e-6)
+        .map(|(c, &i)| settle(&scenario.items[i], c, &solution_values))
         .collect();
     let plan_cost = evaluate(
         &scenario.subset(items),
@@ -395,6 +372,28 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
         },
     )
     .total_cost();
+    // Proof is judged on the plan returned, as evaluated, not on HiGHS's
+    // own objective: the two differ when settling the solver's noise
+    // changes the plan. (With extra capacity or priced overload the
+    // objective is not the plan's cost; there HiGHS's own is judged.)
+    let judged = if options.extra_capacity || options.elastic.is_some() {
+        objective_value
+    } else {
+        plan_cost
+    };
+    let gap = if judged.abs() > 1e-9 {
+        (judged - dual_bound) / judged.abs()
+    } else {
+        judged - dual_bound
+    };
+    let below_grid = grid.is_some_and(|g| judged - dual_bound < g * 0.99 + 1e-9);
+    let proven =
+        matches!(status, HighsModelStatus::Optimal) && (gap <= OPTIMALITY_GAP || below_grid);
+    let shortfall = slacks
+        .iter()
+        .map(|&(r, t, v)| (r, t, values[index[&v]]))
+        .filter(|&(_, _, amount)| amount > 1e-6)
+        .collect();
     MilpResult {
         status: if proven {
             MilpStatus::Optimal
@@ -498,6 +497,38 @@ impl MilpResult {
             shortfall: Vec::new(),
         }
     }
+}
+
+/// The receipts of one item from the solution: a quantity in a bucket
+/// whose setup column is below one half is solver noise (a setup HiGHS
+/// treats as closed within its integrality tolerance) and joins the
+/// item's latest earlier open lot, or the next one when there is none;
+/// every quantity is then snapped.
+fn settle(item: &Item, columns: &ItemColumns, values: &Values) -> Vec<f64> {
+    let mut raw: Vec<f64> = columns
+        .quantity
+        .iter()
+        .map(|q| q.eval_with(values))
+        .collect();
+    let open: Vec<bool> = columns
+        .setup
+        .iter()
+        .map(|y| y.is_some_and(|y| good_lp::Solution::value(values, y) >= 0.5))
+        .collect();
+    for j in 0..raw.len() {
+        if open[j] || raw[j] == 0.0 {
+            continue;
+        }
+        let target = (0..j)
+            .rev()
+            .find(|&s| open[s])
+            .or_else(|| (j + 1..raw.len()).find(|&s| open[s]));
+        if let Some(s) = target {
+            raw[s] += raw[j];
+            raw[j] = 0.0;
+        }
+    }
+    raw.into_iter().map(|q| snap(item, q)).collect()
 }
 
 /// Rounds away solver noise: near-whole quantities become whole, lots
