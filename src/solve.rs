@@ -459,9 +459,6 @@ fn solve_group(
                 // A plan that fits, if a quick search finds one, is HiGHS's
                 // first incumbent.
                 let start = capacity::fix_optimize::start_plan(scenario, group);
-                if std::env::var_os("LOTWRIGHT_TRACE").is_some() {
-                    eprintln!("milp start plan found: {}", start.is_some());
-                }
                 let limits = MilpOptions {
                     start,
                     log_file: limits.log_file.clone(),

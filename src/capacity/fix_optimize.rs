@@ -15,7 +15,7 @@
 
 use std::time::{Duration, Instant};
 
-use super::lagrange::{self, Frame};
+use super::lagrange;
 use super::milp::{self, MilpOptions, MilpResult, MilpStatus};
 use super::Group;
 use crate::eval::{evaluate, quantity_tolerance};
@@ -74,18 +74,18 @@ pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions, search: 
         };
     };
     let subset = scenario.subset(items);
-    let frame = Frame::new(scenario, items, &group.resources);
     let penalty = overload_price(scenario, items);
+    // Cost and overload (load beyond capacity and overtime) from the one
+    // evaluation.
     let score = |receipts: &[Vec<f64>]| -> (f64, f64) {
-        let cost = evaluate(
+        let evaluation = evaluate(
             &subset,
             &Plan {
                 receipts: receipts.to_vec(),
             },
-        )
-        .total_cost();
-        let over = overload(&frame, scenario, &group.resources, receipts);
-        (cost + penalty * over, over)
+        );
+        let over: f64 = evaluation.overloads.iter().map(|o| o.excess).sum();
+        (evaluation.total_cost() + penalty * over, over)
     };
     // The start: the smoothed plan when the relaxation found one, else the
     // subproblems' own plans, overloads and all (measured: a better start
@@ -95,14 +95,6 @@ pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions, search: 
         None => relaxation.pattern.clone(),
     };
     let mut current_score = score(&current);
-    if std::env::var_os("LOTWRIGHT_TRACE").is_some() {
-        eprintln!(
-            "fix-and-optimize start: cost with overload priced {:.2}, overload {:.2}, after {:.2} s",
-            current_score.0,
-            current_score.1,
-            started.elapsed().as_secs_f64()
-        );
-    }
 
     let mut subproblems = 0;
     let mut improved = 0;
@@ -162,12 +154,6 @@ pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions, search: 
                     continue;
                 }
                 let candidate = score(&result.receipts);
-                if std::env::var_os("LOTWRIGHT_TRACE").is_some() {
-                    eprintln!(
-                        "fix-and-optimize {subproblems}: {:.2} s, cost with overload priced {:.2}, overload {:.2}",
-                        result.seconds, candidate.0, candidate.1
-                    );
-                }
                 let less_overload = candidate.1 < current_score.1 - 1e-6;
                 let cheaper = candidate.1 <= current_score.1
                     && candidate.0 < current_score.0 - 1e-7 * current_score.0.abs().max(1.0);
@@ -289,23 +275,6 @@ impl Free {
             Free::Items(a, b) => (a..b).contains(&k),
         }
     }
-}
-
-/// Load beyond capacity and overtime, summed over resources and buckets.
-fn overload(frame: &Frame, scenario: &Scenario, resources: &[usize], receipts: &[Vec<f64>]) -> f64 {
-    let load = frame.load(receipts);
-    let mut over = 0.0;
-    for (r, &resource) in resources.iter().enumerate() {
-        let resource = &scenario.resources[resource];
-        for (t, &l) in load[r].iter().enumerate() {
-            let limit = resource.capacity[t] + resource.overtime_capacity[t];
-            let excess = l - limit;
-            if excess > 1e-9 * limit.abs().max(1.0) {
-                over += excess;
-            }
-        }
-    }
-    over
 }
 
 /// A price per unit of capacity above what a plan gains from one more:
