@@ -5,7 +5,8 @@
 //! ```text
 //! cargo run --release --example benchmark -- [--time-limit S]
 //!     [--formulation strong|plain|both] [--limit N] [--filter TEXT]
-//!     [--replicate LETTER] [--threads N] DIR_OR_FILES...
+//!     [--replicate LETTER] [--threads N] [--start] [--highs NAME=VALUE]
+//!     DIR_OR_FILES...
 //! ```
 //!
 //! Each instance becomes a `Scenario` built in code: week buckets, one
@@ -20,13 +21,13 @@
 
 use std::fs;
 use std::io::{self, Write};
-use std::path::{Path, PathBuf};
+use std::path::PathBuf;
 use std::process::ExitCode;
 use std::time::Instant;
 
 use clap::{Parser, ValueEnum};
 use lotwright::capacity::milp::{self, MilpOptions, MilpResult, MilpStatus};
-use lotwright::error::Location;
+use lotwright::capacity::{fix_optimize, Group};
 use lotwright::eval::evaluate;
 use lotwright::input::literature;
 use lotwright::model::{Plan, Scenario};
@@ -53,6 +54,14 @@ struct Args {
     /// Threads HiGHS may use (HiGHS's own choice if not given).
     #[arg(long)]
     threads: Option<u32>,
+    /// Hand HiGHS the library's start plan (the cheapest lot rule or
+    /// smoothed relaxation plan that fits), as `plan` does; its time counts.
+    #[arg(long)]
+    start: bool,
+    /// A HiGHS option set after the library's own, as NAME=VALUE
+    /// (repeatable; for tuning experiments).
+    #[arg(long, value_name = "NAME=VALUE")]
+    highs: Vec<String>,
     /// Instance files, or folders (every file in them that looks like an instance).
     #[arg(required = true, value_name = "DIR_OR_FILES")]
     paths: Vec<PathBuf>,
@@ -143,6 +152,19 @@ fn run(args: Args) -> Result<(), Failure> {
     if args.limit == Some(0) || args.threads == Some(0) {
         return Err(Error::Usage("--limit and --threads must be at least 1".into()).into());
     }
+    let mut highs_options = Vec::new();
+    for setting in &args.highs {
+        let Some((name, value)) = setting.split_once('=') else {
+            return Err(Error::Usage(format!("--highs `{setting}`: expected NAME=VALUE")).into());
+        };
+        if !milp::highs_option_accepted(name, value) {
+            return Err(Error::Usage(format!(
+                "--highs `{setting}`: HiGHS does not accept this option or value"
+            ))
+            .into());
+        }
+        highs_options.push((name.to_string(), value.to_string()));
+    }
     let instances = read_instances(&args)?;
     if instances.is_empty() {
         return Err(Error::Usage("no instance matched the paths and filters given".into()).into());
@@ -154,6 +176,7 @@ fn run(args: Args) -> Result<(), Failure> {
         threads: args.threads,
         plain,
         relax,
+        highs_options: highs_options.clone(),
         ..MilpOptions::default()
     };
     let mut out = io::stdout().lock();
@@ -162,12 +185,18 @@ fn run(args: Args) -> Result<(), Failure> {
         .map_or("HiGHS default".to_string(), |t| t.to_string());
     writeln!(
         out,
-        "{} instances, time limit {} s per MILP, formulation {}, threads {}, {} cores visible",
+        "{} instances, time limit {} s per MILP, formulation {}, threads {}, {} cores visible{}{}",
         instances.len(),
         args.time_limit,
         formulation_name(args.formulation),
         threads,
         std::thread::available_parallelism().map_or(0, |n| n.get()),
+        if args.start { ", start plan" } else { "" },
+        if args.highs.is_empty() {
+            String::new()
+        } else {
+            format!(", HiGHS options {}", args.highs.join(" "))
+        },
     )?;
     writeln!(out, "{}", header(both))?;
     out.flush()?;
@@ -175,7 +204,27 @@ fn run(args: Args) -> Result<(), Failure> {
     let mut outcomes = Vec::with_capacity(instances.len());
     for scenario in &instances {
         let main_plain = args.formulation == Formulation::Plain;
-        let main = solve(scenario, &options(main_plain, false));
+        let main = if args.start && !main_plain {
+            let started = Instant::now();
+            let group = Group {
+                items: all_items(scenario),
+                resources: (0..scenario.resources.len()).collect(),
+            };
+            let start = fix_optimize::start_plan(scenario, &group);
+            let spent = started.elapsed().as_secs_f64();
+            let mut run = solve(
+                scenario,
+                &MilpOptions {
+                    start,
+                    time_limit: (args.time_limit - spent).max(0.01),
+                    ..options(false, false)
+                },
+            );
+            run.seconds += spent;
+            run
+        } else {
+            solve(scenario, &options(main_plain, false))
+        };
         let mut outcome = Outcome {
             name: scenario.name.clone(),
             main,
@@ -218,64 +267,21 @@ fn formulation_name(formulation: Formulation) -> &'static str {
 // ---------------------------------------------------------------- reading
 
 /// The instances named by the paths, filtered, in order (folders by file
-/// name). A file named on the command line must be an instance; in a folder,
-/// files whose first line is not `n T` (a licence, a readme) are skipped.
+/// name); files in a folder that are not instances are skipped with a note.
 fn read_instances(args: &Args) -> Result<Vec<Scenario>, Error> {
-    let mut files: Vec<(PathBuf, bool)> = Vec::new();
-    for path in &args.paths {
-        let unreadable =
-            |e: io::Error| Error::input(Location::file(path), format!("cannot read: {e}"));
-        if fs::metadata(path).map_err(unreadable)?.is_dir() {
-            let mut listed: Vec<PathBuf> = fs::read_dir(path)
-                .map_err(unreadable)?
-                .filter_map(|entry| entry.ok().map(|e| e.path()))
-                .filter(|p| p.is_file() && !file_name(p).starts_with('.'))
-                .collect();
-            listed.sort();
-            files.extend(listed.into_iter().map(|p| (p, true)));
-        } else {
-            files.push((path.clone(), false));
-        }
-    }
     let wanted = |name: &str| {
         (args.filter.is_empty() || args.filter.iter().any(|f| name.contains(f.as_str())))
             && args.replicate.is_none_or(|r| name.ends_with(r))
     };
-    let mut instances = Vec::new();
-    for (path, listed) in files {
-        let name = file_name(&path);
-        if !wanted(&name) {
-            continue;
-        }
-        if args.limit.is_some_and(|n| instances.len() >= n) {
-            break;
-        }
-        let text = fs::read(&path)
-            .map_err(|e| Error::input(Location::file(&path), format!("cannot read: {e}")))?;
-        let text = String::from_utf8_lossy(&text);
-        if listed && !looks_like_instance(&text) {
-            eprintln!(
-                "note: skipped {}: its first line is not `n T`",
-                path.display()
-            );
-            continue;
-        }
-        instances.push(literature::parse_capacitated(&path, &name, &text)?);
+    let (instances, skipped) =
+        literature::read_capacitated_instances(&args.paths, wanted, args.limit)?;
+    for path in skipped {
+        eprintln!(
+            "note: skipped {}: its first line is not `n T`",
+            path.display()
+        );
     }
     Ok(instances)
-}
-
-fn file_name(path: &Path) -> String {
-    path.file_name().map_or_else(
-        || path.display().to_string(),
-        |n| n.to_string_lossy().into_owned(),
-    )
-}
-
-fn looks_like_instance(text: &str) -> bool {
-    let first = text.lines().find(|l| !l.trim().is_empty()).unwrap_or("");
-    let tokens: Vec<&str> = first.split_whitespace().collect();
-    tokens.len() == 2 && tokens.iter().all(|t| t.parse::<usize>().is_ok())
 }
 
 // ---------------------------------------------------------------- solving

@@ -37,9 +37,8 @@
 //! docs/benchmarks.md); both models therefore report costs without it. Each model's plan goes through `eval::evaluate`,
 //! and the check column flags costs or bounds that contradict each other.
 
-use std::fs;
 use std::io::{self, Write};
-use std::path::{Path, PathBuf};
+use std::path::PathBuf;
 use std::process::ExitCode;
 use std::time::Instant;
 
@@ -203,58 +202,28 @@ fn run(args: Args) -> io::Result<()> {
 /// The instances named by the paths, filtered, in order (folders by file
 /// name); in a folder, files whose first line is not `n T` are skipped.
 fn read_instances(args: &Args) -> io::Result<Vec<Scenario>> {
-    let mut files: Vec<(PathBuf, bool)> = Vec::new();
-    for path in &args.paths {
-        if fs::metadata(path)?.is_dir() {
-            let mut listed: Vec<PathBuf> = fs::read_dir(path)?
-                .filter_map(|entry| entry.ok().map(|e| e.path()))
-                .filter(|p| p.is_file() && !file_name(p).starts_with('.'))
-                .collect();
-            listed.sort();
-            files.extend(listed.into_iter().map(|p| (p, true)));
-        } else {
-            files.push((path.clone(), false));
-        }
-    }
     let wanted = |name: &str| {
         args.filter.is_empty() || args.filter.iter().any(|f| name.contains(f.as_str()))
     };
-    let mut instances = Vec::new();
-    for (path, listed) in files {
-        let name = file_name(&path);
-        if !wanted(&name) {
-            continue;
-        }
-        if args.limit.is_some_and(|n| instances.len() >= n) {
-            break;
-        }
-        let text = String::from_utf8_lossy(&fs::read(&path)?).into_owned();
-        let first = text.lines().find(|l| !l.trim().is_empty()).unwrap_or("");
-        let tokens: Vec<&str> = first.split_whitespace().collect();
-        let header = tokens.len() == 2 && tokens.iter().all(|t| t.parse::<usize>().is_ok());
-        if listed && !header {
-            eprintln!(
-                "note: skipped {}: its first line is not `n T`",
-                path.display()
-            );
-            continue;
-        }
-        let scenario = literature::parse_capacitated(&path, &name, &text)
+    let (instances, skipped) =
+        literature::read_capacitated_instances(&args.paths, wanted, args.limit)
             .map_err(|e| io::Error::new(io::ErrorKind::InvalidData, e.to_string()))?;
-        if let Some(why) = outside_textbook(&scenario) {
-            let message = format!("{name}: the textbook model here does not cover {why}");
+    for path in skipped {
+        eprintln!(
+            "note: skipped {}: its first line is not `n T`",
+            path.display()
+        );
+    }
+    for scenario in &instances {
+        if let Some(why) = outside_textbook(scenario) {
+            let message = format!(
+                "{}: the textbook model here does not cover {why}",
+                scenario.name
+            );
             return Err(io::Error::new(io::ErrorKind::InvalidData, message));
         }
-        instances.push(scenario);
     }
     Ok(instances)
-}
-
-fn file_name(path: &Path) -> String {
-    path.file_name().map_or_else(
-        || path.display().to_string(),
-        |n| n.to_string_lossy().into_owned(),
-    )
 }
 
 /// What the scenario has that the textbook model leaves out, if anything:

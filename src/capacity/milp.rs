@@ -55,6 +55,10 @@ pub struct MilpOptions {
     /// What plans groups of several items (the `solve` module reads it;
     /// this function always solves the MILP).
     pub solver: super::GroupSolver,
+    /// HiGHS options set after the library's own (name, value), for
+    /// tuning experiments: `true`/`false`, whole numbers and decimals are
+    /// passed as such, anything else as text.
+    pub highs_options: Vec<(String, String)>,
 }
 
 impl Default for MilpOptions {
@@ -71,6 +75,7 @@ impl Default for MilpOptions {
             elastic: None,
             start: None,
             solver: super::GroupSolver::Auto,
+            highs_options: Vec::new(),
         }
     }
 }
@@ -304,6 +309,10 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     if let Some(threads) = options.threads {
         model.set_option("threads", threads as i32);
     }
+    for (name, value) in &options.highs_options {
+        // Checked beforehand with `highs_option_accepted`.
+        let _ = apply_highs_option(&mut model, name, value);
+    }
 
     let Ok(solved) = model.try_solve() else {
         return failed(periods, items.len(), started);
@@ -408,6 +417,29 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
         hit_time_limit,
         shortfall,
     }
+}
+
+/// Sets one HiGHS option, the value read as a flag, a whole number, a
+/// decimal or else text; false when HiGHS refuses the name or the value.
+fn apply_highs_option(model: &mut highs::Model, name: &str, value: &str) -> bool {
+    let set = if let Ok(flag) = value.parse::<bool>() {
+        model.try_set_option(name, flag)
+    } else if let Ok(whole) = value.parse::<i32>() {
+        model.try_set_option(name, whole)
+    } else if let Ok(number) = value.parse::<f64>() {
+        model.try_set_option(name, number)
+    } else {
+        model.try_set_option(name, value)
+    };
+    set.is_ok()
+}
+
+/// Whether HiGHS takes this option name and value (see
+/// `MilpOptions::highs_options`).
+pub fn highs_option_accepted(name: &str, value: &str) -> bool {
+    let mut model = highs::RowProblem::default().optimise(highs::Sense::Minimise);
+    model.make_quiet();
+    apply_highs_option(&mut model, name, value)
 }
 
 /// The step every plan's cost of these items moves in, when there is one:

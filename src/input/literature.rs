@@ -5,7 +5,7 @@
 //! holding cost, setup time and setup cost; the demand, one line per period).
 //! Lines after the demand (the generator's notes) are ignored.
 
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 use crate::error::{Error, Location, Result};
 use crate::model::{BucketKind, Calendar, Item, Resource, Routing, Scenario};
@@ -62,6 +62,72 @@ impl<'a> Lines<'a> {
         }
         Ok((number, values))
     }
+}
+
+/// The instances a run names: each path is an instance file or a folder,
+/// whose files are taken in name order. Only instances whose file name
+/// `wanted` accepts are read, and at most `limit` of them. A file named
+/// directly must be an instance; in a folder, a file whose first line is
+/// not `n T` (a licence, a readme) is passed over and returned second.
+pub fn read_capacitated_instances(
+    paths: &[PathBuf],
+    wanted: impl Fn(&str) -> bool,
+    limit: Option<usize>,
+) -> Result<(Vec<Scenario>, Vec<PathBuf>)> {
+    let unreadable = |path: &Path, e: std::io::Error| {
+        Error::input(Location::file(path), format!("cannot read: {e}"))
+    };
+    let mut files: Vec<(PathBuf, bool)> = Vec::new();
+    for path in paths {
+        if std::fs::metadata(path)
+            .map_err(|e| unreadable(path, e))?
+            .is_dir()
+        {
+            let mut listed: Vec<PathBuf> = std::fs::read_dir(path)
+                .map_err(|e| unreadable(path, e))?
+                .filter_map(|entry| entry.ok().map(|e| e.path()))
+                .filter(|p| p.is_file() && !file_name(p).starts_with('.'))
+                .collect();
+            listed.sort();
+            files.extend(listed.into_iter().map(|p| (p, true)));
+        } else {
+            files.push((path.clone(), false));
+        }
+    }
+    let mut instances = Vec::new();
+    let mut skipped = Vec::new();
+    for (path, listed) in files {
+        let name = file_name(&path);
+        if !wanted(&name) {
+            continue;
+        }
+        if limit.is_some_and(|n| instances.len() >= n) {
+            break;
+        }
+        let bytes = std::fs::read(&path).map_err(|e| unreadable(&path, e))?;
+        let text = String::from_utf8_lossy(&bytes);
+        if listed && !starts_with_size(&text) {
+            skipped.push(path);
+            continue;
+        }
+        instances.push(parse_capacitated(&path, &name, &text)?);
+    }
+    Ok((instances, skipped))
+}
+
+/// The file name of a path, or the whole path when it has none.
+pub fn file_name(path: &Path) -> String {
+    path.file_name().map_or_else(
+        || path.display().to_string(),
+        |n| n.to_string_lossy().into_owned(),
+    )
+}
+
+/// Whether the first non-blank line is two whole numbers (`n T`).
+fn starts_with_size(text: &str) -> bool {
+    let first = text.lines().find(|l| !l.trim().is_empty()).unwrap_or("");
+    let tokens: Vec<&str> = first.split_whitespace().collect();
+    tokens.len() == 2 && tokens.iter().all(|t| t.parse::<usize>().is_ok())
 }
 
 /// Reads one instance into a scenario named `name`: one resource with the
