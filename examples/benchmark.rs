@@ -54,8 +54,9 @@ struct Args {
     /// Threads HiGHS may use (HiGHS's own choice if not given).
     #[arg(long)]
     threads: Option<u32>,
-    /// Hand HiGHS the library's start plan (the cheapest lot rule or
-    /// smoothed relaxation plan that fits), as `plan` does; its time counts.
+    /// Hand HiGHS the library's start plan, as `plan` does (the cheapest
+    /// lot rule or smoothed relaxation plan that fits, else what
+    /// fix-and-optimize finds in a tenth of the limit); its time counts.
     #[arg(long)]
     start: bool,
     /// A HiGHS option set after the library's own, as NAME=VALUE
@@ -210,7 +211,7 @@ fn run(args: Args) -> Result<(), Failure> {
                 items: all_items(scenario),
                 resources: (0..scenario.resources.len()).collect(),
             };
-            let start = fix_optimize::start_plan(scenario, &group);
+            let start = fix_optimize::milp_start(scenario, &group, &options(false, false));
             let spent = started.elapsed().as_secs_f64();
             let mut run = solve(
                 scenario,

@@ -458,7 +458,7 @@ fn solve_group(
                 component.solver = "milp";
                 // A plan that fits, if a quick search finds one, is HiGHS's
                 // first incumbent.
-                let start = capacity::fix_optimize::start_plan(scenario, group);
+                let start = capacity::fix_optimize::milp_start(scenario, group, &limits);
                 let limits = MilpOptions {
                     start,
                     log_file: limits.log_file.clone(),
@@ -664,8 +664,16 @@ fn take_milp(
                     rules::plan(&scenario.items[i], Sizing::Rule(Rule::LotForLot)),
                 );
             }
+            let bound = if result.lower_bound.is_finite() {
+                format!(
+                    " (no plan can cost less than {}, the solver's lower bound)",
+                    crate::report::money(result.lower_bound)
+                )
+            } else {
+                String::new()
+            };
             notes.push(format!(
-                "{names}: the time limit ran out before the solver found a plan; the plan shown is lot-for-lot and may overload capacity"
+                "{names}: the time limit ran out before the solver found a plan{bound}; the plan shown is lot-for-lot and may overload capacity"
             ));
         }
     }

@@ -221,7 +221,7 @@ fn the_solver_option_reaches_the_json() {
     }
     let (code, _, stderr) = run("simplex");
     assert_eq!(code, Some(2));
-    assert!(stderr.contains("unknown solver simplex"), "{stderr}");
+    assert!(stderr.contains("unknown solver `simplex`"), "{stderr}");
 }
 
 /// Found by the property above: HiGHS left 3.3e-7 units in a bucket whose

@@ -208,6 +208,38 @@ pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions, search: 
     }
 }
 
+/// Share of a MILP's time limit that fix-and-optimize may take to find a
+/// start when `start_plan` finds none.
+pub const START_SEARCH_SHARE: f64 = 0.1;
+
+/// A plan within capacity for HiGHS to start from: `start_plan`'s when it
+/// finds one, else the plan fix-and-optimize reaches within
+/// `START_SEARCH_SHARE` of the time limit (measured: on the tightest
+/// benchmark instances HiGHS alone found no plan in 60 s; see
+/// docs/benchmarks.md). The second search stops on the clock, so a start
+/// it finds can differ from run to run; the first is repeatable.
+pub fn milp_start(
+    scenario: &Scenario,
+    group: &Group,
+    options: &MilpOptions,
+) -> Option<Vec<Vec<f64>>> {
+    if let Some(start) = start_plan(scenario, group) {
+        return Some(start);
+    }
+    let limits = MilpOptions {
+        time_limit: options.time_limit * START_SEARCH_SHARE,
+        log_file: None,
+        start: None,
+        ..options.clone()
+    };
+    let found = solve(scenario, group, &limits, Search::FixAndOptimize);
+    matches!(
+        found.result.status,
+        MilpStatus::Optimal | MilpStatus::Feasible
+    )
+    .then_some(found.result.receipts)
+}
+
 /// Subgradient steps `start_plan` takes: a count, not a time, so that the
 /// start and with it the MILP's path repeat on every run.
 const START_STEPS: usize = 100;

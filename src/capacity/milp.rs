@@ -384,8 +384,9 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     // Proof is judged on the plan returned, as evaluated, not on HiGHS's
     // own objective: the two differ when settling the solver's noise
     // changes the plan. (With extra capacity or priced overload the
-    // objective is not the plan's cost; there HiGHS's own is judged.)
-    let judged = if options.extra_capacity || options.elastic.is_some() {
+    // objective is not the plan's cost, and an LP relaxation's fractional
+    // setups are no plan; there HiGHS's own is judged.)
+    let judged = if options.extra_capacity || options.elastic.is_some() || options.relax {
         objective_value
     } else {
         plan_cost

@@ -126,7 +126,7 @@ impl Limits {
         }
         options.solver = GroupSolver::parse(&self.solver).ok_or_else(|| {
             Error::usage(format!(
-                "unknown solver {}; choose one of {}",
+                "unknown solver `{}`; choose one of {}",
                 self.solver,
                 GroupSolver::NAMES.join(", ")
             ))
