@@ -382,15 +382,6 @@ fn runs_with_plan(outcome: &Outcome) -> impl Iterator<Item = &Run> {
 
 // ---------------------------------------------------------------- rendering
 
-fn status_name(status: MilpStatus) -> &'static str {
-    match status {
-        MilpStatus::Optimal => "optimal",
-        MilpStatus::Feasible => "feasible",
-        MilpStatus::NoPlan => "no plan",
-        MilpStatus::Infeasible => "infeasible",
-    }
-}
-
 fn number(value: Option<f64>, decimals: usize) -> String {
     match value {
         Some(v) if v.is_finite() => format!("{v:.decimals$}"),
@@ -419,7 +410,7 @@ fn row(outcome: &Outcome, both: bool) -> String {
     let mut line = format!(
         "{:<9} {:<10} {:>10} {:>10} {:>7} {:>7.2}",
         outcome.name,
-        status_name(main.status),
+        main.status.name(),
         number(plan_cost, 1),
         number(bound, 1),
         number(main.gap(), 2),
@@ -431,7 +422,7 @@ fn row(outcome: &Outcome, both: bool) -> String {
             " {:>10} {:>10} {:<10} {:>7} {:>7}",
             number(outcome.lp_strong, 1),
             number(outcome.lp_plain, 1),
-            plain.map_or("-", |p| status_name(p.status)),
+            plain.map_or("-", |p| p.status.name()),
             number(plain.and_then(Run::gap), 2),
             number(plain.map(|p| p.seconds), 2),
         );

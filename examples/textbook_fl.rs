@@ -499,15 +499,6 @@ fn checks(textbook: &Run, lotwright: &Run, lp: Option<(f64, f64)>) -> Vec<String
 
 // ---------------------------------------------------------------- rendering
 
-fn status_name(status: MilpStatus) -> &'static str {
-    match status {
-        MilpStatus::Optimal => "optimal",
-        MilpStatus::Feasible => "feasible",
-        MilpStatus::NoPlan => "no plan",
-        MilpStatus::Infeasible => "infeasible",
-    }
-}
-
 fn number(value: f64, decimals: usize) -> String {
     if value.is_finite() {
         format!("{value:.decimals$}")
@@ -530,7 +521,7 @@ fn header(lp: bool) -> String {
 fn cells(run: &Run) -> String {
     format!(
         "{:<8} {:>9} {:>9} {:>6.2}",
-        status_name(run.status),
+        run.status.name(),
         number(run.cost, 1),
         number(run.bound, 1),
         run.seconds

@@ -95,6 +95,18 @@ pub enum MilpStatus {
     NoPlan,
 }
 
+impl MilpStatus {
+    /// The status in words, as tables print it.
+    pub fn name(self) -> &'static str {
+        match self {
+            MilpStatus::Optimal => "optimal",
+            MilpStatus::Feasible => "feasible",
+            MilpStatus::NoPlan => "no plan",
+            MilpStatus::Infeasible => "infeasible",
+        }
+    }
+}
+
 #[derive(Debug, Clone)]
 pub struct MilpResult {
     pub status: MilpStatus,
