@@ -643,27 +643,17 @@ fn location_model(
         *constant += item.holding_cost[t] * shifted.offset[t];
     }
     let mut quantity: Vec<Expression> = vec![Expression::from(0.0); periods];
-    // Holding cost per unit over the buckets before each bucket.
-    let held_before: Vec<f64> = std::iter::once(0.0)
-        .chain(item.holding_cost.iter().scan(0.0, |sum, &h| {
-            *sum += h;
-            Some(*sum)
-        }))
-        .collect();
     for t in 0..periods {
         let need = shifted.net[t];
         if need <= tolerance {
             continue;
         }
         let mut cover = Expression::from(0.0);
-        // Earliest receipt bucket first, as the textbook model orders its
-        // columns (measured against it in docs/benchmarks.md).
-        for j in 0..=t {
+        let mut carrying = 0.0; // holding from j to t, per unit
+        for j in (0..=t).rev() {
             if let Some(y) = setup[j] {
                 let z = vars.add(variable().min(0.0).max(1.0));
                 let unit = item.unit_cost[j - item.lead_time];
-                // Holding from bucket j to t, per unit.
-                let carrying = held_before[t] - held_before[j];
                 *objective += need * (unit + carrying) * z;
                 constraints.push(constraint::leq(z, y));
                 if cap[j] < need {
@@ -672,6 +662,9 @@ fn location_model(
                 }
                 cover += z;
                 quantity[j] += need * z;
+            }
+            if j > 0 {
+                carrying += item.holding_cost[j - 1];
             }
         }
         constraints.push(cover.eq(1.0));
