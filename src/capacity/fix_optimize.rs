@@ -226,6 +226,10 @@ pub fn milp_start(
     if let Some(start) = start_plan(scenario, group) {
         return Some(start);
     }
+    if super::cumulative_shortfall(scenario, group).is_some() {
+        // No plan fits; the MILP proves it without a search first.
+        return None;
+    }
     let limits = MilpOptions {
         time_limit: options.time_limit * START_SEARCH_SHARE,
         log_file: None,

@@ -111,12 +111,15 @@ pub fn components(scenario: &Scenario) -> Vec<Group> {
     groups
 }
 
-/// Why a group cannot be planned within capacity: the first bucket from
-/// which the load that must be released by then (net requirements, plus one
-/// setup per item with need) exceeds the cumulative capacity with overtime.
-pub fn explain_capacity(scenario: &Scenario, group: &Group, options: &milp::MilpOptions) -> String {
+/// The first resource and bucket from which the load that must be released
+/// by then (net requirements, plus one setup per item with need) exceeds
+/// the cumulative capacity with overtime: (resource, bucket, load,
+/// capacity). Where there is one, no plan fits.
+pub fn cumulative_shortfall(
+    scenario: &Scenario,
+    group: &Group,
+) -> Option<(usize, usize, f64, f64)> {
     let periods = scenario.periods();
-    let quantity = crate::report::quantity;
     for &r in &group.resources {
         let resource = &scenario.resources[r];
         let mut capacity = 0.0;
@@ -134,18 +137,29 @@ pub fn explain_capacity(scenario: &Scenario, group: &Group, options: &milp::Milp
                 }
             }
             if load > capacity + 1e-6 * (1.0 + capacity) {
-                let short = (load - capacity).ceil();
-                return format!(
-                    "resource {}: from period 1 to period {} the load that must be made by then ({}, with one setup per item) exceeds the capacity with overtime ({}) by {}; {} more overtime capacity in those periods, or backlog allowed on its items, would make a plan possible",
-                    resource.id,
-                    t + 1,
-                    quantity(load.round()),
-                    quantity(capacity.round()),
-                    quantity(short),
-                    quantity(short),
-                );
+                return Some((r, t, load, capacity));
             }
         }
+    }
+    None
+}
+
+/// Why a group cannot be planned within capacity: the cumulative test of
+/// `cumulative_shortfall` where it finds the cause, else the least extra
+/// capacity a plan needs.
+pub fn explain_capacity(scenario: &Scenario, group: &Group, options: &milp::MilpOptions) -> String {
+    let quantity = crate::report::quantity;
+    if let Some((r, t, load, capacity)) = cumulative_shortfall(scenario, group) {
+        let short = (load - capacity).ceil();
+        return format!(
+            "resource {}: from period 1 to period {} the load that must be made by then ({}, with one setup per item) exceeds the capacity with overtime ({}) by {}; {} more overtime capacity in those periods, or backlog allowed on its items, would make a plan possible",
+            scenario.resources[r].id,
+            t + 1,
+            quantity(load.round()),
+            quantity(capacity.round()),
+            quantity(short),
+            quantity(short),
+        );
     }
     // The cumulative test misses what setup times, maximum lots, lead times
     // and several resources do together: ask the MILP for the least extra
