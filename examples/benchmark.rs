@@ -153,6 +153,13 @@ fn run(args: Args) -> Result<(), Failure> {
     if args.limit == Some(0) || args.threads == Some(0) {
         return Err(Error::Usage("--limit and --threads must be at least 1".into()).into());
     }
+    if args.start && args.formulation == Formulation::Plain {
+        return Err(Error::Usage(
+            "--start applies to the strong model; it cannot be used with --formulation plain"
+                .into(),
+        )
+        .into());
+    }
     let mut highs_options = Vec::new();
     for setting in &args.highs {
         let Some((name, value)) = setting.split_once('=') else {
@@ -205,7 +212,7 @@ fn run(args: Args) -> Result<(), Failure> {
     let mut outcomes = Vec::with_capacity(instances.len());
     for scenario in &instances {
         let main_plain = args.formulation == Formulation::Plain;
-        let main = if args.start && !main_plain {
+        let main = if args.start {
             let started = Instant::now();
             let group = Group {
                 items: all_items(scenario),

@@ -122,18 +122,39 @@ pub fn cumulative_shortfall(
     let periods = scenario.periods();
     for &r in &group.resources {
         let resource = &scenario.resources[r];
+        // Per routed item without backlog: its per-unit use, setup time,
+        // lead time and cumulative net requirement by receipt bucket.
+        let routed: Vec<(f64, f64, usize, Vec<f64>)> = scenario
+            .routings
+            .iter()
+            .filter(|x| x.resource == r && !scenario.items[x.item].allows_backlog())
+            .map(|routing| {
+                let item = &scenario.items[routing.item];
+                let net = crate::single::net_requirements(item, |s| item.stock_floor(s));
+                let cumulative = net
+                    .iter()
+                    .scan(0.0, |sum, &q| {
+                        *sum += q;
+                        Some(*sum)
+                    })
+                    .collect();
+                (
+                    routing.per_unit,
+                    routing.setup_time,
+                    item.lead_time,
+                    cumulative,
+                )
+            })
+            .collect();
         let mut capacity = 0.0;
         for t in 0..periods {
             capacity += resource.capacity[t] + resource.overtime_capacity[t];
             let mut load = 0.0;
-            for routing in scenario.routings.iter().filter(|x| x.resource == r) {
-                let item = &scenario.items[routing.item];
+            for (per_unit, setup_time, lead_time, cumulative) in &routed {
                 // Receipts needed by bucket t + lead time must be released by t.
-                let through = (t + item.lead_time).min(periods - 1);
-                let net = crate::single::net_requirements(item, |s| item.stock_floor(s));
-                let need: f64 = net[..=through].iter().sum();
-                if need > 0.0 && !item.allows_backlog() {
-                    load += routing.per_unit * need + routing.setup_time;
+                let need = cumulative[(t + lead_time).min(periods - 1)];
+                if need > 0.0 {
+                    load += per_unit * need + setup_time;
                 }
             }
             if load > capacity + 1e-6 * (1.0 + capacity) {
