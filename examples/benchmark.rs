@@ -213,23 +213,12 @@ fn run(args: Args) -> Result<(), Failure> {
     for scenario in &instances {
         let main_plain = args.formulation == Formulation::Plain;
         let main = if args.start {
-            let started = Instant::now();
             let group = Group {
                 items: all_items(scenario),
                 resources: (0..scenario.resources.len()).collect(),
             };
-            let start = fix_optimize::milp_start(scenario, &group, &options(false, false));
-            let spent = started.elapsed().as_secs_f64();
-            let mut run = solve(
-                scenario,
-                &MilpOptions {
-                    start,
-                    time_limit: (args.time_limit - spent).max(0.01),
-                    ..options(false, false)
-                },
-            );
-            run.seconds += spent;
-            run
+            let result = fix_optimize::solve_from_start(scenario, &group, &options(false, false));
+            checked_run(scenario, result)
         } else {
             solve(scenario, &options(main_plain, false))
         };
@@ -299,7 +288,14 @@ fn all_items(scenario: &Scenario) -> Vec<usize> {
 }
 
 fn solve(scenario: &Scenario, options: &MilpOptions) -> Run {
-    let result: MilpResult = milp::solve(scenario, &all_items(scenario), options);
+    checked_run(
+        scenario,
+        milp::solve(scenario, &all_items(scenario), options),
+    )
+}
+
+/// The figures of one solve, its plan checked against `evaluate`.
+fn checked_run(scenario: &Scenario, result: MilpResult) -> Run {
     let has_plan = matches!(result.status, MilpStatus::Optimal | MilpStatus::Feasible);
     let evaluated = has_plan.then(|| {
         let plan = Plan {

@@ -458,13 +458,7 @@ fn solve_group(
                 component.solver = "milp";
                 // A plan that fits, if a quick search finds one, is HiGHS's
                 // first incumbent.
-                let start = capacity::fix_optimize::milp_start(scenario, group, &limits);
-                let limits = MilpOptions {
-                    start,
-                    log_file: limits.log_file.clone(),
-                    ..remaining(options, started)
-                };
-                capacity::milp::solve(scenario, &group.items, &limits)
+                capacity::fix_optimize::solve_from_start(scenario, group, &limits)
             }
             GroupSolver::Lagrangean | GroupSolver::FixAndOptimize => {
                 let search = if solver == GroupSolver::Lagrangean {

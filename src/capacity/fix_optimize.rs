@@ -244,6 +244,23 @@ pub fn milp_start(
     .then_some(found.result.receipts)
 }
 
+/// The group's full MILP from the start `milp_start` finds: the search's
+/// time counts against the limit and in the result's seconds. The MILP
+/// keeps at least half a second (or the whole limit, if that is less).
+pub fn solve_from_start(scenario: &Scenario, group: &Group, options: &MilpOptions) -> MilpResult {
+    let started = Instant::now();
+    let start = milp_start(scenario, group, options);
+    let spent = started.elapsed().as_secs_f64();
+    let limits = MilpOptions {
+        start,
+        time_limit: (options.time_limit - spent).max(options.time_limit.min(0.5)),
+        ..options.clone()
+    };
+    let mut result = milp::solve(scenario, &group.items, &limits);
+    result.seconds += spent;
+    result
+}
+
 /// Subgradient steps `start_plan` takes: a count, not a time, so that the
 /// start and with it the MILP's path repeat on every run.
 const START_STEPS: usize = 100;
