@@ -644,11 +644,14 @@ fn take_milp(
                     rules::plan(&scenario.items[i], Sizing::Rule(Rule::LotForLot)),
                 );
             }
-            notes.push(if group.resources.is_empty() {
+            let why = if group.resources.is_empty() {
                 format!("{names}: no plan meets the lot constraints and stock floors")
             } else {
                 capacity::explain_capacity(scenario, group, options)
-            });
+            };
+            notes.push(format!(
+                "{why}. Until then the plan shows {names} lot-for-lot, which does not fit either: read it for the load, do not release it"
+            ));
         }
         MilpStatus::NoPlan => {
             component.status = Status::Unknown;

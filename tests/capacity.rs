@@ -58,6 +58,19 @@ fn capacity_shortfall_is_explained_with_resource_bucket_and_amount() {
     assert!(notes.contains("period 2"), "{notes}");
     assert!(notes.contains("by 7"), "{notes}");
     assert!(notes.contains("overtime"), "{notes}");
+    // The plan printed meanwhile is not one to release, and says so.
+    assert!(
+        notes.contains("shows A, B lot-for-lot, which does not fit either"),
+        "{notes}"
+    );
+    let (code, table, _) = lotwright(&["plan", dir.path().to_str().unwrap()]);
+    assert_eq!(code, 1, "{table}");
+    assert!(
+        table.contains("infeasible: no plan meets every constraint"),
+        "{table}"
+    );
+    assert!(table.contains("The orders shown break it"), "{table}");
+    assert!(table.lines().all(|l| l.chars().count() <= 100), "{table}");
 }
 
 #[test]

@@ -172,10 +172,17 @@ pub fn explain_capacity(scenario: &Scenario, group: &Group, options: &milp::Milp
     let quantity = crate::report::quantity;
     if let Some((r, t, load, capacity)) = cumulative_shortfall(scenario, group) {
         let short = (load - capacity).ceil();
+        let (span, those) = if t == 0 {
+            ("in period 1".to_string(), "that period")
+        } else {
+            (
+                format!("from period 1 to period {}", t + 1),
+                "those periods",
+            )
+        };
         return format!(
-            "resource {}: from period 1 to period {} the load that must be made by then ({}, with one setup per item) exceeds the capacity with overtime ({}) by {}; {} more overtime capacity in those periods, or backlog allowed on its items, would make a plan possible",
+            "resource {}: {span} the load that must be made by then ({}, with one setup per item) exceeds the capacity with overtime ({}) by {}; {} more overtime capacity in {those}, or backlog allowed on its items, would make a plan possible",
             scenario.resources[r].id,
-            t + 1,
             quantity(load.round()),
             quantity(capacity.round()),
             quantity(short),

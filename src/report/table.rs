@@ -115,7 +115,10 @@ fn status_words(result: &MethodResult) -> String {
             ),
             None => "feasible".to_string(),
         },
-        Status::Infeasible => "infeasible".to_string(),
+        Status::Infeasible if result.method == "optimal" => {
+            "infeasible: no plan meets every constraint".to_string()
+        }
+        Status::Infeasible => "infeasible: this rule's plan breaks a constraint".to_string(),
         Status::Unknown => "unknown: no plan found in time".to_string(),
     }
 }
@@ -144,9 +147,10 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
     heading(scenario, &mut out);
     let chosen = &outcome.chosen;
     let solver = chosen.solver();
-    let _ = writeln!(
-        out,
-        "\nPlan: {}, {}{}. Total cost {}.",
+    let cost = money(chosen.total_cost());
+    out.push('\n');
+    let headline = format!(
+        "Plan: {}, {}{}. {}.",
         chosen.method,
         status_words(chosen),
         if solver.is_empty() {
@@ -154,8 +158,13 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
         } else {
             format!(" (solver {solver})")
         },
-        money(chosen.total_cost())
+        if chosen.status == Status::Infeasible {
+            format!("The orders shown break it too; their cost would be {cost}")
+        } else {
+            format!("Total cost {cost}")
+        }
     );
+    wrap(&headline, "", &mut out);
     for note in &chosen.notes {
         wrap(&format!("Note: {note}"), "  ", &mut out);
     }
