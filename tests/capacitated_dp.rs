@@ -1,5 +1,6 @@
 //! The capacitated single-item dynamic program over stock levels against
-//! the MILP on HiGHS and against the one evaluation of its plans.
+//! the MILP on HiGHS, against a brute force over every plan of tiny items,
+//! and against the one evaluation of its plans.
 
 use lotwright::capacity::milp::{self, MilpOptions, MilpStatus};
 use lotwright::capacity::single_dp;
@@ -128,4 +129,104 @@ fn continuous_quantities_are_left_to_the_milp() {
         single_dp::solve(&s, 0),
         Err(single_dp::NotApplicable::NotWhole)
     );
+}
+
+/// The least cost of one whole item on its resource by trying every receipt
+/// quantity in every bucket, with its own cost and feasibility check (not
+/// `evaluate`): lot rules, capacity with overtime at its cost, setup time,
+/// backlog at its cost and cleared by the end, initial stock; no lead time
+/// and no safety stock.
+fn brute_force(s: &Scenario) -> Option<f64> {
+    let item = &s.items[0];
+    let resource = &s.resources[0];
+    let routing = &s.routings[0];
+    let periods = item.periods();
+    let most = |t: usize| {
+        let room = resource.capacity[t] + resource.overtime_capacity[t] - routing.setup_time;
+        (room / routing.per_unit).floor().max(0.0) as usize
+    };
+    let allowed = |q: usize| {
+        let q = q as f64;
+        q == 0.0
+            || (q >= item.min_lot
+                && item.max_lot.is_none_or(|m| q <= m)
+                && item.lot_multiple.is_none_or(|m| (q / m).fract() == 0.0))
+    };
+    let mut best: Option<f64> = None;
+    let mut quantities = vec![0usize; periods];
+    loop {
+        let mut cost = 0.0;
+        let mut ok = true;
+        let mut stock = item.initial_stock;
+        for (t, &q) in quantities.iter().enumerate() {
+            ok &= allowed(q);
+            let q = q as f64;
+            if q > 0.0 {
+                cost += item.setup_cost[t] + item.unit_cost[t] * q;
+                let load = routing.per_unit * q + routing.setup_time;
+                cost += resource.overtime_cost * (load - resource.capacity[t]).max(0.0);
+            }
+            stock += q - item.demand[t];
+            match item.backlog_cost {
+                Some(b) if stock < 0.0 => cost += b * -stock,
+                None if stock < 0.0 => ok = false,
+                _ => cost += item.holding_cost[t] * stock,
+            }
+        }
+        ok &= stock >= 0.0;
+        if ok && best.is_none_or(|b| cost < b - 1e-9) {
+            best = Some(cost);
+        }
+        // The next vector of quantities, each bucket up to what fits.
+        let mut t = 0;
+        loop {
+            if t == periods {
+                return best;
+            }
+            if quantities[t] < most(t) {
+                quantities[t] += 1;
+                break;
+            }
+            quantities[t] = 0;
+            t += 1;
+        }
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 60, ..ProptestConfig::default() })]
+
+    /// On items small enough to try every plan, the program over stock
+    /// levels finds the least cost a brute force finds, or proves with it
+    /// that there is no plan.
+    #[test]
+    fn the_program_over_stock_levels_equals_a_brute_force(
+        demand in prop::collection::vec(0u32..7, 2..5),
+        setup in 0u32..40,
+        holding in 1u32..4,
+        multiple in prop::sample::select(vec![1.0, 2.0, 3.0]),
+        min_lot in prop::sample::select(vec![0.0, 3.0]),
+        max_lot in prop::option::of(5u32..9),
+        backlog in prop::option::of(1u32..6),
+        capacity in 3u32..9,
+        overtime in 0u32..3,
+        setup_time in 0u32..2,
+        initial in 0u32..4,
+    ) {
+        let s = scenario(
+            demand.iter().map(|&d| d as f64).collect(),
+            setup as f64, holding as f64 * 0.5, multiple, min_lot,
+            max_lot.map(|m| m as f64), backlog.map(|b| b as f64),
+            capacity as f64, overtime as f64, setup_time as f64, initial as f64,
+        );
+        let dp = single_dp::solve(&s, 0).expect("whole data within the bound");
+        match (dp, brute_force(&s)) {
+            (None, None) => {}
+            (Some((_, cost)), Some(best)) => prop_assert!(
+                (cost - best).abs() <= 1e-9 * (1.0 + best.abs()),
+                "program {} brute force {}", cost, best
+            ),
+            (dp, best) => prop_assert!(false, "program {:?} brute force {:?}", dp, best),
+        }
+    }
 }
