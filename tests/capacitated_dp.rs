@@ -230,3 +230,39 @@ proptest! {
         }
     }
 }
+
+/// A minimum lot ordered for a safety stock, with scheduled receipts after
+/// it: stock passes "remaining need plus one lot" and the program must
+/// still reach it (it once called this item infeasible; found by the
+/// property test of the exact method with lot constraints).
+#[test]
+fn receipts_after_a_minimum_lot_stay_within_the_states() {
+    let mut s = scenario(
+        vec![0.0; 5],
+        0.0,
+        0.0,
+        1.0,
+        13.0,
+        None,
+        None,
+        100.0,
+        0.0,
+        0.0,
+        0.0,
+    );
+    s.items[0].unit_cost = vec![0.0; 5];
+    s.items[0].safety_stock = 1.0;
+    s.items[0].receipts = vec![0.0, 0.0, 3.0, 0.0, 15.0];
+    let (receipts, cost) = single_dp::solve(&s, 0)
+        .expect("whole data within the bound")
+        .expect("ordering 13 in the first bucket is a plan");
+    assert_eq!(receipts, vec![13.0, 0.0, 0.0, 0.0, 0.0]);
+    assert_eq!(cost, 0.0);
+    let evaluation = evaluate(
+        &s,
+        &Plan {
+            receipts: vec![receipts],
+        },
+    );
+    assert!(evaluation.feasible, "{:?}", evaluation.violations);
+}

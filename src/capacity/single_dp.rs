@@ -55,10 +55,18 @@ pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
     }
     let m = multiple as i64;
     let total_demand: f64 = item.demand.iter().sum();
-    let supply: f64 = item.initial_stock + item.receipts.iter().sum::<f64>();
-    // Stock above all remaining need plus one lot is never useful; backlog
+    let scheduled: f64 = item.receipts.iter().sum();
+    let supply: f64 = item.initial_stock + scheduled;
+    // An order never needs to lift stock above the remaining need plus one
+    // lot, but scheduled receipts that arrive after it come on top (a
+    // minimum lot ordered for a safety stock, then receipts: found by the
+    // property test of the exact method with lot constraints). Backlog
     // never exceeds the demand.
-    let top = (total_demand + item.safety_stock.max(item.ending_stock) + item.min_lot + multiple)
+    let top = (total_demand
+        + item.safety_stock.max(item.ending_stock)
+        + item.min_lot
+        + multiple
+        + scheduled)
         .max(supply) as i64
         + m;
     let bottom = if item.allows_backlog() {
