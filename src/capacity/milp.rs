@@ -682,9 +682,25 @@ fn location_model(
             quantity[j] += surplus;
         }
     }
+    // The most bucket j can receive under `z <= y`: the need from j on,
+    // plus the surplus allowed. Where that fits the capacity the row would
+    // only repeat what the shares already say, so it is left out.
+    let surplus_most = if item.min_lot > 0.0 || item.lot_multiple.is_some() {
+        item.min_lot + item.lot_multiple.unwrap_or(0.0)
+    } else {
+        0.0
+    };
+    let mut need_from = 0.0;
+    let mut reach = vec![0.0; periods];
+    for t in (0..periods).rev() {
+        if shifted.net[t] > tolerance {
+            need_from += shifted.net[t];
+        }
+        reach[t] = need_from + surplus_most;
+    }
     for j in 0..periods {
         if let Some(y) = setup[j] {
-            if cap[j].is_finite() {
+            if cap[j].is_finite() && reach[j] > cap[j] {
                 constraints.push(quantity[j].clone().leq(cap[j] * y));
             }
         }
