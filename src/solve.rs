@@ -398,7 +398,10 @@ fn solve_group(
             Some(exact) => single.push((i, exact)),
             None => {
                 component.status = Status::Infeasible;
-                notes.push(explain_item(item));
+                notes.push(no_plan_note(
+                    &explain_item(item),
+                    &format!("item {}", item.id),
+                ));
                 plan.set(i, rules::plan(item, Sizing::Rule(Rule::LotForLot)));
             }
         }
@@ -530,11 +533,12 @@ fn solve_constrained(
                 items: vec![i],
                 resources: scenario.routings_of(i).map(|r| r.resource).collect(),
             };
-            notes.push(if group.resources.is_empty() {
+            let why = if group.resources.is_empty() {
                 format!("item {}: no plan meets its lot constraints and stock floors", item.id)
             } else {
                 capacity::explain_capacity(scenario, &group, options)
-            });
+            };
+            notes.push(no_plan_note(&why, &format!("item {}", item.id)));
             return;
         }
         Err(NotApplicable::TooLarge(size)) => notes.push(format!(
@@ -649,9 +653,7 @@ fn take_milp(
             } else {
                 capacity::explain_capacity(scenario, group, options)
             };
-            notes.push(format!(
-                "{why}. Until then the plan shows {names} lot-for-lot, which does not fit either: read it for the load, do not release it"
-            ));
+            notes.push(no_plan_note(&why, &names));
         }
         MilpStatus::NoPlan => {
             component.status = Status::Unknown;
@@ -681,6 +683,13 @@ fn meets_lot_constraints(item: &crate::model::Item, receipts: &[f64]) -> bool {
     receipts.iter().filter(|&&q| q > 0.0).all(|&q| {
         (rules::constrain(item, q) - q).abs() <= tolerance && q <= rules::lot_cap(item) + tolerance
     })
+}
+
+/// The note on items without a plan: why, and what the plan shows meanwhile.
+fn no_plan_note(why: &str, shown: &str) -> String {
+    format!(
+        "{why}. Meanwhile the plan shows {shown} lot-for-lot; that breaks a constraint as well and is not to be released"
+    )
 }
 
 /// Why an item has no feasible plan: need before an order can arrive.

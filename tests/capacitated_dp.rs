@@ -134,8 +134,10 @@ fn continuous_quantities_are_left_to_the_milp() {
 /// The least cost of one whole item on its resource by trying every receipt
 /// quantity in every bucket, with its own cost and feasibility check (not
 /// `evaluate`): lot rules, capacity with overtime at its cost, setup time,
-/// backlog at its cost and cleared by the end, initial stock; no lead time
-/// and no safety stock.
+/// backlog at its cost and cleared by the end, initial stock, scheduled
+/// receipts, and safety stock as a floor on end-of-bucket stock for an item
+/// without backlog (a target only, not checked, with backlog); no lead
+/// time.
 fn brute_force(s: &Scenario) -> Option<f64> {
     let item = &s.items[0];
     let resource = &s.resources[0];
@@ -166,7 +168,10 @@ fn brute_force(s: &Scenario) -> Option<f64> {
                 let load = routing.per_unit * q + routing.setup_time;
                 cost += resource.overtime_cost * (load - resource.capacity[t]).max(0.0);
             }
-            stock += q - item.demand[t];
+            stock += item.receipts[t] + q - item.demand[t];
+            if item.backlog_cost.is_none() && stock < item.safety_stock {
+                ok = false;
+            }
             match item.backlog_cost {
                 Some(b) if stock < 0.0 => cost += b * -stock,
                 None if stock < 0.0 => ok = false,
@@ -212,13 +217,17 @@ proptest! {
         overtime in 0u32..3,
         setup_time in 0u32..2,
         initial in 0u32..4,
+        receipts in prop::collection::vec(prop::sample::select(vec![0u32, 0, 0, 3, 7]), 4),
+        safety in prop::sample::select(vec![0u32, 0, 1, 2]),
     ) {
-        let s = scenario(
+        let mut s = scenario(
             demand.iter().map(|&d| d as f64).collect(),
             setup as f64, holding as f64 * 0.5, multiple, min_lot,
             max_lot.map(|m| m as f64), backlog.map(|b| b as f64),
             capacity as f64, overtime as f64, setup_time as f64, initial as f64,
         );
+        s.items[0].receipts = receipts[..demand.len()].iter().map(|&r| r as f64).collect();
+        s.items[0].safety_stock = safety as f64;
         let dp = single_dp::solve(&s, 0).expect("whole data within the bound");
         match (dp, brute_force(&s)) {
             (None, None) => {}

@@ -98,7 +98,8 @@ fn assert_reproduced(scenario: &Scenario, receipts: &[f64], cost: f64, exact_sol
 /// 120, 110 and overtime capacity 50, 60, 80, 70; demand 100, 190, 210,
 /// 160; a unit costs $6 on regular time and $9 on overtime; holding $0.10
 /// per unit and month; no setup cost, no shortage. The book's optimum
-/// makes 140, 160, 200, 160 (all regular time, overtime 50, 60, 80, 50)
+/// makes 140, 160, 200, 160 (all regular capacity used, plus overtime
+/// 50, 60, 80, 50)
 /// at a total cost of $4685.
 ///
 /// Here the $3 overtime premium is the resource's overtime cost per unit of

@@ -682,9 +682,9 @@ fn location_model(
             quantity[j] += surplus;
         }
     }
-    // The most bucket j can receive under `z <= y`: the need from j on,
-    // plus the surplus allowed. Where that fits the capacity the row would
-    // only repeat what the shares already say, so it is left out.
+    // The most bucket j can receive under `z <= y` and the surplus bound:
+    // the need from j on, plus the surplus allowed. Where that fits the
+    // capacity the row would only repeat those rows, so it is left out.
     let surplus_most = if item.min_lot > 0.0 || item.lot_multiple.is_some() {
         item.min_lot + item.lot_multiple.unwrap_or(0.0)
     } else {

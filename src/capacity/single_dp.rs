@@ -5,8 +5,10 @@
 //! The state is the end-of-bucket stock (negative for backlog); a decision is
 //! the number of lot multiples received in a bucket, within min_lot, max_lot
 //! and the capacity (with overtime) of the item's resources in the release
-//! bucket. Every feasible plan is a path through the states, so the least
-//! path is the optimum (Bellman's principle; the model of Florian and Klein
+//! bucket. Every plan whose stock stays between the lowest and highest
+//! state is a path through the states, and some least-cost plan does (costs
+//! are never negative; see `top` below), so the least path is the optimum
+//! (Bellman's principle; the model of Florian and Klein
 //! 1971, "Deterministic production planning with concave costs and capacity
 //! constraints", Management Science 18(1), cited from memory, with general
 //! costs here).

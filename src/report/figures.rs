@@ -55,12 +55,15 @@ pub fn saving(outcome: &Outcome) -> Option<Saving<'_>> {
     })
 }
 
-/// A status in words: `proven optimal` only when it is.
-pub fn status_phrase(status: Status) -> String {
+/// A status in words: `proven optimal` only when it is. `exact` is true for
+/// the least-cost method, whose infeasibility means no plan exists; a rule's
+/// means only that its own plan breaks a constraint.
+pub fn status_phrase(status: Status, exact: bool) -> String {
     match status {
         Status::Optimal => "proven optimal",
         Status::Feasible => "feasible, not proven optimal",
-        Status::Infeasible => "infeasible: no plan meets every constraint",
+        Status::Infeasible if exact => "infeasible: no plan meets every constraint",
+        Status::Infeasible => "infeasible: this rule's plan breaks a constraint",
         Status::Unknown => "unknown: no plan was found before the time limit",
     }
     .to_string()

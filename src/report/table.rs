@@ -158,8 +158,10 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
         } else {
             format!(" (solver {solver})")
         },
-        if chosen.status == Status::Infeasible {
-            format!("The orders shown break it too; their cost would be {cost}")
+        if chosen.status == Status::Infeasible && chosen.method == "optimal" {
+            format!("The orders shown (lot-for-lot where no plan exists) break a constraint as well; their cost would be {cost}")
+        } else if chosen.status == Status::Infeasible {
+            format!("Its cost would be {cost}")
         } else {
             format!("Total cost {cost}")
         }

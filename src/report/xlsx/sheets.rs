@@ -32,7 +32,10 @@ pub(super) fn summary(
         ("Method".into(), Cell::Text(chosen.method.to_string())),
         (
             "Status".into(),
-            Cell::Text(figures::status_phrase(chosen.status)),
+            Cell::Text(figures::status_phrase(
+                chosen.status,
+                chosen.method == "optimal",
+            )),
         ),
         ("Solver".into(), Cell::Text(chosen.solver())),
         (
