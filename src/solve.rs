@@ -65,6 +65,11 @@ pub struct MethodResult {
 }
 
 impl MethodResult {
+    /// Whether this is the exact (least-cost) method rather than a lot rule.
+    pub fn is_exact(&self) -> bool {
+        self.method == METHOD_NAMES[0]
+    }
+
     /// The solvers that produced the plan, joined by `+` (`dp`, `dp+milp`).
     pub fn solver(&self) -> String {
         let mut names: Vec<&str> = self.components.iter().map(|c| c.solver).collect();
@@ -533,12 +538,9 @@ fn solve_constrained(
                 items: vec![i],
                 resources: scenario.routings_of(i).map(|r| r.resource).collect(),
             };
-            let why = if group.resources.is_empty() {
-                format!("item {}: no plan meets its lot constraints and stock floors", item.id)
-            } else {
-                capacity::explain_capacity(scenario, &group, options)
-            };
-            notes.push(no_plan_note(&why, &format!("item {}", item.id)));
+            let names = format!("item {}", item.id);
+            let why = no_plan_reason(scenario, &group, &names, options);
+            notes.push(no_plan_note(&why, &names));
             return;
         }
         Err(NotApplicable::TooLarge(size)) => notes.push(format!(
@@ -648,11 +650,7 @@ fn take_milp(
                     rules::plan(&scenario.items[i], Sizing::Rule(Rule::LotForLot)),
                 );
             }
-            let why = if group.resources.is_empty() {
-                format!("{names}: no plan meets the lot constraints and stock floors")
-            } else {
-                capacity::explain_capacity(scenario, group, options)
-            };
+            let why = no_plan_reason(scenario, group, &names, options);
             notes.push(no_plan_note(&why, &names));
         }
         MilpStatus::NoPlan => {
@@ -683,6 +681,21 @@ fn meets_lot_constraints(item: &crate::model::Item, receipts: &[f64]) -> bool {
     receipts.iter().filter(|&&q| q > 0.0).all(|&q| {
         (rules::constrain(item, q) - q).abs() <= tolerance && q <= rules::lot_cap(item) + tolerance
     })
+}
+
+/// Why a group has no plan: its capacity explained, or, without resources,
+/// its lot constraints and stock floors.
+fn no_plan_reason(
+    scenario: &Scenario,
+    group: &capacity::Group,
+    names: &str,
+    options: &MilpOptions,
+) -> String {
+    if group.resources.is_empty() {
+        format!("{names}: no plan meets the lot constraints and stock floors")
+    } else {
+        capacity::explain_capacity(scenario, group, options)
+    }
 }
 
 /// The note on items without a plan: why, and what the plan shows meanwhile.

@@ -671,8 +671,13 @@ fn location_model(
     }
     // Surplus that min_lot or lot_multiple forces beyond the need stays in
     // stock to the end; an optimal plan needs at most min_lot + multiple.
-    if item.min_lot > 0.0 || item.lot_multiple.is_some() {
-        let most = item.min_lot + item.lot_multiple.unwrap_or(0.0);
+    let has_surplus = item.min_lot > 0.0 || item.lot_multiple.is_some();
+    let most = if has_surplus {
+        item.min_lot + item.lot_multiple.unwrap_or(0.0)
+    } else {
+        0.0
+    };
+    if has_surplus {
         for j in 0..periods {
             let Some(y) = setup[j] else { continue };
             let surplus = vars.add(variable().min(0.0));
@@ -685,18 +690,13 @@ fn location_model(
     // The most bucket j can receive under `z <= y` and the surplus bound:
     // the need from j on, plus the surplus allowed. Where that fits the
     // capacity the row would only repeat those rows, so it is left out.
-    let surplus_most = if item.min_lot > 0.0 || item.lot_multiple.is_some() {
-        item.min_lot + item.lot_multiple.unwrap_or(0.0)
-    } else {
-        0.0
-    };
     let mut need_from = 0.0;
     let mut reach = vec![0.0; periods];
     for t in (0..periods).rev() {
         if shifted.net[t] > tolerance {
             need_from += shifted.net[t];
         }
-        reach[t] = need_from + surplus_most;
+        reach[t] = need_from + most;
     }
     for j in 0..periods {
         if let Some(y) = setup[j] {

@@ -295,7 +295,7 @@ fn plan(args: PlanArgs) -> Result<i32> {
     }
     // Only the exact method can tell that the scenario has no feasible
     // plan; a rule's infeasible plan says nothing about the scenario.
-    if outcome.chosen.method != "optimal" {
+    if !outcome.chosen.is_exact() {
         return Ok(0);
     }
     Ok(match outcome.chosen.status {

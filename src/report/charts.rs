@@ -91,7 +91,7 @@ pub fn cost_by_method(outcome: &Outcome, currency: &str) -> String {
     svg.text(plan_left, top - 12.0, "plan", "start", bold);
     for (k, r) in rows.iter().enumerate() {
         let y = top + row_height * k as f64;
-        let emphasis = if r.method == "optimal" { bold } else { "" };
+        let emphasis = if r.is_exact() { bold } else { "" };
         svg.text(left - 8.0, y + 18.0, r.method, "end", emphasis);
         let mut at = 0.0;
         for (name, colour, value) in &kinds {

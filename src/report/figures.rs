@@ -31,8 +31,8 @@ pub struct Saving<'a> {
 
 /// The saving of the optimal plan, when both it and a rule were run.
 pub fn saving(outcome: &Outcome) -> Option<Saving<'_>> {
-    let optimal = outcome.comparison.iter().find(|r| r.method == "optimal")?;
-    let rules = || outcome.comparison.iter().filter(|r| r.method != "optimal");
+    let optimal = outcome.comparison.iter().find(|r| r.is_exact())?;
+    let rules = || outcome.comparison.iter().filter(|r| !r.is_exact());
     let fixed = rules().find(|r| r.method == "fixed-lot");
     let cheapest = || {
         let feasible = rules()
@@ -82,7 +82,7 @@ pub fn extra_over_optimal(outcome: &Outcome, result: &MethodResult) -> Option<f6
     let best = outcome
         .comparison
         .iter()
-        .find(|r| r.method == "optimal" && r.evaluation.feasible)?
+        .find(|r| r.is_exact() && r.evaluation.feasible)?
         .total_cost();
     (best.abs() > 1e-9).then(|| (result.total_cost() - best) / best.abs())
 }

@@ -125,7 +125,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> String {
         &format!("total cost{unit}"),
         &money(chosen.total_cost()),
     );
-    if let Some(s) = figures::saving(outcome).filter(|_| chosen.method == "optimal") {
+    if let Some(s) = figures::saving(outcome).filter(|_| chosen.is_exact()) {
         let label = format!("saving against {}{unit}", s.reference.method);
         card(&mut out, &label, &money(s.amount));
         if (s.net_of_ending_stock - s.amount).abs() > 0.5 {
@@ -160,7 +160,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> String {
         .iter()
         .flat_map(|r| {
             r.notes.iter().map(move |n| {
-                if r.method == "optimal" {
+                if r.is_exact() {
                     n.clone()
                 } else {
                     format!("{}: {n}", r.method)

@@ -115,7 +115,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Value {
     let reference = outcome
         .comparison
         .iter()
-        .find(|r| r.method == "optimal" && r.evaluation.feasible)
+        .find(|r| r.is_exact() && r.evaluation.feasible)
         .map(|r| r.total_cost());
     let items: Vec<Value> = scenario
         .items

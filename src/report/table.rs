@@ -115,10 +115,7 @@ fn status_words(result: &MethodResult) -> String {
             ),
             None => "feasible".to_string(),
         },
-        Status::Infeasible if result.method == "optimal" => {
-            "infeasible: no plan meets every constraint".to_string()
-        }
-        Status::Infeasible => "infeasible: this rule's plan breaks a constraint".to_string(),
+        Status::Infeasible => super::figures::status_phrase(result.status, result.is_exact()),
         Status::Unknown => "unknown: no plan found in time".to_string(),
     }
 }
@@ -158,7 +155,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
         } else {
             format!(" (solver {solver})")
         },
-        if chosen.status == Status::Infeasible && chosen.method == "optimal" {
+        if chosen.status == Status::Infeasible && chosen.is_exact() {
             format!("The orders shown (lot-for-lot where no plan exists) break a constraint as well; their cost would be {cost}")
         } else if chosen.status == Status::Infeasible {
             format!("Its cost would be {cost}")
@@ -229,7 +226,7 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
     grid.render(out);
     let reference = rows
         .iter()
-        .find(|r| r.method == "optimal" && r.evaluation.feasible)
+        .find(|r| r.is_exact() && r.evaluation.feasible)
         .map(|r| r.total_cost());
     let _ = writeln!(out, "\nStock and setups by method");
     let mut grid = Grid::new(&[
@@ -282,7 +279,7 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
     }
     grid.render(out);
     for r in rows {
-        if r.method != "optimal" {
+        if !r.is_exact() {
             for note in &r.notes {
                 wrap(&format!("{}: {note}", r.method), "  ", out);
             }

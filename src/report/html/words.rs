@@ -55,7 +55,7 @@ pub(super) fn faults_in_words(evaluation: &Evaluation) -> String {
 
 /// The status of the plan shown, stated as what is proven.
 fn status_sentence(chosen: &MethodResult, cash: &Cash) -> String {
-    if chosen.method != "optimal" {
+    if !chosen.is_exact() {
         return if chosen.evaluation.feasible {
             format!(
                 "Status: the {} rule's plan is feasible; it is not optimized.",
@@ -97,7 +97,7 @@ pub(super) fn summary_sentences(scenario: &Scenario, outcome: &Outcome) -> Vec<S
     } else {
         ("The best plan found", "the best plan found")
     };
-    let saving = figures::saving(outcome).filter(|_| chosen.method == "optimal");
+    let saving = figures::saving(outcome).filter(|_| chosen.is_exact());
     match saving {
         Some(s) => {
             let reference = s.reference;
@@ -152,7 +152,7 @@ pub(super) fn summary_sentences(scenario: &Scenario, outcome: &Outcome) -> Vec<S
                 ));
             }
         }
-        None if chosen.method == "optimal" => {
+        None if chosen.is_exact() => {
             sentences.push(format!("{ours} costs {}.", cash.of(chosen.total_cost())));
         }
         None => sentences.push(format!(

@@ -32,10 +32,7 @@ pub(super) fn summary(
         ("Method".into(), Cell::Text(chosen.method.to_string())),
         (
             "Status".into(),
-            Cell::Text(figures::status_phrase(
-                chosen.status,
-                chosen.method == "optimal",
-            )),
+            Cell::Text(figures::status_phrase(chosen.status, chosen.is_exact())),
         ),
         ("Solver".into(), Cell::Text(chosen.solver())),
         (
