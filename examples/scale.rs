@@ -59,7 +59,7 @@ const CASES: [Case; 6] = [
     Case {
         name: "1-item-52000",
         generate: &["--items", "1", "--periods", "52000"],
-        plan: &["--method", "optimal"],
+        plan: &["--method", "exact"],
     },
     Case {
         name: "20-items-52-2res-milp",
@@ -75,7 +75,7 @@ const CASES: [Case; 6] = [
             "--utilisation",
             "0.8",
         ],
-        plan: &["--method", "optimal", "--solver", "milp"],
+        plan: &["--method", "exact", "--solver", "milp"],
     },
     Case {
         name: "100-items-52-3res-85pct-seed1",
@@ -95,7 +95,7 @@ const CASES: [Case; 6] = [
             "--seed",
             "1",
         ],
-        plan: &["--method", "optimal"],
+        plan: &["--method", "exact"],
     },
     Case {
         name: "100-items-52-3res-85pct-seed2",
@@ -115,7 +115,7 @@ const CASES: [Case; 6] = [
             "--seed",
             "2",
         ],
-        plan: &["--method", "optimal"],
+        plan: &["--method", "exact"],
     },
 ];
 

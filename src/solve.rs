@@ -104,7 +104,7 @@ pub struct Options {
 
 /// The names every method goes by, in the order of the comparison.
 pub const METHOD_NAMES: [&str; 8] = [
-    "optimal",
+    "exact",
     "lot-for-lot",
     "fixed-lot",
     "eoq",
@@ -162,8 +162,14 @@ pub fn plan_scenario_with(
     options: &Options,
     progress: &dyn Progress,
 ) -> crate::error::Result<Outcome> {
-    if let Some(method) = &options.method {
-        if !METHOD_NAMES.contains(&method.as_str()) {
+    // `optimal` was the exact method's name before it became `exact`
+    // (a status word must not name a method); it is still understood.
+    let method = options
+        .method
+        .as_deref()
+        .map(|m| if m == "optimal" { METHOD_NAMES[0] } else { m });
+    if let Some(method) = method {
+        if !METHOD_NAMES.contains(&method) {
             return Err(crate::error::Error::usage(format!(
                 "unknown method {method}; choose one of {}",
                 METHOD_NAMES.join(", ")
@@ -175,9 +181,9 @@ pub fn plan_scenario_with(
             ));
         }
     }
-    let wanted = |name: &str| options.method.as_deref().is_none_or(|m| m == name);
+    let wanted = |name: &str| method.is_none_or(|m| m == name);
     let mut comparison = Vec::new();
-    if wanted("optimal") {
+    if wanted(METHOD_NAMES[0]) {
         comparison.push(solve_exact_with(scenario, &options.milp, progress));
     }
     for rule in Rule::ALL {
@@ -318,7 +324,7 @@ pub fn solve_exact_with(
     };
     MethodResult {
         components,
-        method: "optimal",
+        method: METHOD_NAMES[0],
         status,
         plan,
         evaluation,

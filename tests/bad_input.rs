@@ -644,14 +644,24 @@ const CASES: &[Case] = &[
         expect: &["line 2, column 5 (max_lot)", "below min_lot"],
     },
     Case {
-        name: "items.csv lot_multiple of zero",
+        name: "items.csv negative lot_multiple",
         base: Plain,
         file: "items.csv",
         edits: &[(
             "items.csv",
-            Write(b"item,setup_cost,holding_cost,lot_multiple\nA,80,2,0\n"),
+            Write(b"item,setup_cost,holding_cost,lot_multiple\nA,80,2,-5\nB,40,1,\n"),
         )],
-        expect: &["line 2, column 4 (lot_multiple)", "must be more than zero"],
+        expect: &["line 2, column 4 (lot_multiple)", "must not be negative", "0 for a continuous item"],
+    },
+    Case {
+        name: "items.csv fractional lot_multiple on a whole item",
+        base: Plain,
+        file: "items.csv",
+        edits: &[(
+            "items.csv",
+            Write(b"item,setup_cost,holding_cost,lot_multiple\nA,80,2,\nB,40,1,2.5\n"),
+        )],
+        expect: &["line 3, column 4 (lot_multiple)", "2.5 is not a whole number", "0 for a continuous item"],
     },
     Case {
         name: "items.csv with no lot meeting min, multiple and max",

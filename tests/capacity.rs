@@ -127,7 +127,7 @@ fn the_demo_plant_is_planned_within_capacity_and_proven_optimal() {
         demo,
         "--json",
         "--method",
-        "optimal",
+        "exact",
         "--time-limit",
         "900",
     ]);

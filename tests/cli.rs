@@ -67,7 +67,7 @@ fn fixture() -> tempfile::TempDir {
 }
 
 const METHODS: [&str; 8] = [
-    "optimal",
+    "exact",
     "lot-for-lot",
     "fixed-lot",
     "eoq",
@@ -219,12 +219,38 @@ fn infeasible_scenario_exits_1_and_still_prints_json() {
     let comparison = value["comparison"]
         .as_array()
         .expect("comparison is a list");
-    assert_eq!(comparison[0]["method"], "optimal");
+    assert_eq!(comparison[0]["method"], "exact");
     assert_eq!(comparison[0]["status"], "infeasible");
     assert_eq!(comparison[0]["feasible"], false);
     // The explanation names the item and the period of the shortage.
     let notes = value["notes"].to_string();
     assert!(notes.contains("period 1"), "{notes}");
+}
+
+#[test]
+fn the_headline_gives_the_status_first_and_then_what_made_the_plan() {
+    let dir = fixture();
+    let output = lotwright(&["plan", path(dir.path())]);
+    assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
+    let text = String::from_utf8_lossy(&output.stdout).to_string();
+    let headline = text
+        .lines()
+        .find(|l| l.starts_with("Plan: "))
+        .expect("a headline");
+    assert!(
+        headline.starts_with("Plan: proven optimal (exact method, solver dp)."),
+        "{headline}"
+    );
+    let rule = lotwright(&["plan", path(dir.path()), "--method", "silver-meal"]);
+    let text = String::from_utf8_lossy(&rule.stdout).to_string();
+    assert!(
+        text.contains("Plan: feasible (silver-meal rule)."),
+        "{text}"
+    );
+    // The exact method's former name is still understood.
+    let old = lotwright(&["plan", path(dir.path()), "--method", "optimal", "--json"]);
+    assert_eq!(old.status.code(), Some(0), "stderr: {}", stderr(&old));
+    assert_eq!(json(&old)["comparison"][0]["method"], "exact");
 }
 
 #[test]
@@ -418,26 +444,26 @@ fn the_same_input_gives_the_same_output() {
 
 #[test]
 fn eoq_json_gives_the_classic_lot_and_cost() {
-    // Common practice arithmetic: EOQ = sqrt(2 x 4000 x 100 / 5) = 400;
-    // ordering and holding cost are equal there, 4000 / 400 x 100 = 1000
-    // and 400 / 2 x 5 = 1000, so the total is 2000; 10 orders per time
-    // unit, one every 0.1 of it.
+    // Common practice arithmetic with numbers of our own: EOQ =
+    // sqrt(2 x 7200 x 25 / 4) = sqrt(90000) = 300; ordering and holding
+    // cost are equal there, 7200 / 300 x 25 = 600 and 300 / 2 x 4 = 600,
+    // so the total is 1200; 24 orders per time unit, one every 1/24 of it.
     let output = lotwright(&[
         "eoq",
         "--demand",
-        "4000",
+        "7200",
         "--setup-cost",
-        "100",
+        "25",
         "--holding-cost",
-        "5",
+        "4",
         "--json",
     ]);
     assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
     let value = json(&output);
-    assert!((number(&value, "eoq") - 400.0).abs() < 1e-9);
-    assert!((number(&value, "total_cost") - 2000.0).abs() < 1e-9);
-    assert!((number(&value, "orders") - 10.0).abs() < 1e-9);
-    assert!((number(&value, "cycle") - 0.1).abs() < 1e-12);
+    assert!((number(&value, "eoq") - 300.0).abs() < 1e-9);
+    assert!((number(&value, "total_cost") - 1200.0).abs() < 1e-9);
+    assert!((number(&value, "orders") - 24.0).abs() < 1e-9);
+    assert!((number(&value, "cycle") - 1.0 / 24.0).abs() < 1e-12);
 }
 
 #[test]

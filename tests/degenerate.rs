@@ -20,7 +20,7 @@ fn run(s: &Scenario) -> lotwright::solve::Outcome {
 fn sound(s: &Scenario) {
     let outcome = run(s);
     let exact = &outcome.comparison[0];
-    assert_eq!(exact.method, "optimal");
+    assert_eq!(exact.method, "exact");
     assert_eq!(exact.status, Status::Optimal, "{:?}", exact.notes);
     assert!(exact.evaluation.feasible);
     for row in &outcome.comparison {

@@ -508,7 +508,7 @@ proptest! {
         let scenario = scenario(vec![item.clone()]);
         let outcome = plan_scenario(&scenario, &Options::default()).expect("the plan runs");
         let exact = &outcome.comparison[0];
-        prop_assert_eq!(exact.method, "optimal");
+        prop_assert_eq!(exact.method, "exact");
         let rules: Vec<_> = outcome.comparison[1..].iter().filter(|r| r.evaluation.feasible).collect();
         if !rules.is_empty() {
             prop_assert!(exact.evaluation.feasible, "a rule is feasible but the exact plan {:?} is not: {:?}", exact.plan.receipts, exact.evaluation.violations);

@@ -111,9 +111,11 @@ items.csv      one row per item. Required: item, setup_cost (cost of one
                holding_rate (per year, times unit_cost). Optional: unit_cost,
                initial_stock, safety_stock (a floor on end-of-bucket stock),
                lead_time (buckets from release to receipt), min_lot,
-               lot_multiple, max_lot, backlog_cost (per unit per bucket; empty
-               means no backlog), fixed_lot (the lot size used today, for the
-               comparison), ending_stock (stock wanted at the end).
+               lot_multiple (empty: whole units; 0: continuous, for bulk
+               goods in kg or litres), max_lot, backlog_cost (per unit per
+               bucket; empty means no backlog), fixed_lot (the lot size used
+               today, for the comparison), ending_stock (stock wanted at the
+               end).
 
 demand.csv     item, period or date, quantity. Rows for one bucket add up.
 

@@ -49,7 +49,7 @@ struct InitArgs {
 struct PlanArgs {
     /// The scenario folder (scenario.toml, items.csv, demand.csv, ...).
     dir: PathBuf,
-    /// Run only this method: optimal, lot-for-lot, fixed-lot, eoq, poq,
+    /// Run only this method: exact (also called optimal), lot-for-lot, fixed-lot, eoq, poq,
     /// silver-meal, least-unit-cost or part-period-balancing.
     #[arg(long)]
     method: Option<String>,

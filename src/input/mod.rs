@@ -155,6 +155,29 @@ fn optional(file: &CsvFile, record: &Record, name: &str, default: f64) -> Result
     }
 }
 
+/// The lot multiple of a `lot_multiple` cell: `0` makes the item continuous
+/// (`None`); any other value must be a whole number of units, since whole
+/// units are the default and a fractional multiple would break them.
+fn lot_multiple(cell: &Cell) -> Result<Option<f64>> {
+    let value = cell.number()?;
+    if value == 0.0 {
+        return Ok(None);
+    }
+    if value < 0.0 {
+        return Err(cell.error(format!(
+            "{} must not be negative; give a whole number of units per lot, or 0 for a continuous item (kg, litres)",
+            cell.text
+        )));
+    }
+    if value.fract() != 0.0 {
+        return Err(cell.error(format!(
+            "{} is not a whole number; quantities are whole units, so a lot multiple must be whole (or 0 for a continuous item, whose quantities may be fractional)",
+            cell.text
+        )));
+    }
+    Ok(Some(value))
+}
+
 /// The items, and for each the holding rate per bucket when its holding cost
 /// derives from unit cost (so a unit-cost override can follow it).
 fn read_items(dir: &Path, calendar: &Calendar) -> Result<(Vec<Item>, Vec<Option<f64>>)> {
@@ -202,9 +225,10 @@ fn read_items(dir: &Path, calendar: &Calendar) -> Result<(Vec<Item>, Vec<Option<
             None => 0,
         };
         let min_lot = optional(&file, record, "min_lot", 0.0)?;
+        // Whole units unless the cell says 0 (bulk goods: kg, litres).
         let lot_multiple = match file.cell(record, "lot_multiple") {
-            Some(cell) => Some(cell.positive()?),
-            None => None,
+            Some(cell) => lot_multiple(&cell)?,
+            None => Some(1.0),
         };
         let max_lot = match file.cell(record, "max_lot") {
             Some(cell) => {

@@ -146,15 +146,16 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
     let solver = chosen.solver();
     let cost = money(chosen.total_cost());
     out.push('\n');
+    // Status first, then what produced the plan: the method's name must
+    // never read like a status ("optimal, feasible").
+    let source = match (chosen.is_exact(), solver.is_empty()) {
+        (true, false) => format!("exact method, solver {solver}"),
+        (true, true) => "exact method".to_string(),
+        (false, _) => format!("{} rule", chosen.method),
+    };
     let headline = format!(
-        "Plan: {}, {}{}. {}.",
-        chosen.method,
+        "Plan: {} ({source}). {}.",
         status_words(chosen),
-        if solver.is_empty() {
-            String::new()
-        } else {
-            format!(" (solver {solver})")
-        },
         if chosen.status == Status::Infeasible && chosen.is_exact() {
             format!("The orders shown (lot-for-lot where no plan exists) break a constraint as well; their cost would be {cost}")
         } else if chosen.status == Status::Infeasible {
@@ -236,7 +237,7 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
         "avg stock value",
         "end stock",
         "end stock value",
-        "vs optimal",
+        "vs exact plan",
     ]);
     for r in rows {
         let e = &r.evaluation;

@@ -110,9 +110,12 @@ pub(super) fn summary(
         .comparison
         .iter()
         .flat_map(|r| {
-            r.notes.iter().map(move |n| match r.method {
-                "optimal" => n.clone(),
-                method => format!("{method}: {n}"),
+            r.notes.iter().map(move |n| {
+                if r.is_exact() {
+                    n.clone()
+                } else {
+                    format!("{}: {n}", r.method)
+                }
             })
         })
         .collect();
@@ -313,7 +316,7 @@ pub(super) fn comparison(
         (format!("Average stock value{money}"), 13.0),
         ("Ending stock (units)".to_string(), 11.0),
         (format!("Ending stock value{money}"), 13.0),
-        ("Cost over optimal".to_string(), 10.0),
+        ("Cost over exact plan".to_string(), 10.0),
         (format!("Lower bound{money}"), 14.0),
     ];
     let columns: Vec<(&str, f64)> = headers.iter().map(|(h, w)| (h.as_str(), *w)).collect();
