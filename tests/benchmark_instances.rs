@@ -1,6 +1,7 @@
 //! A few instances of the capacitated lot-sizing benchmark of Trigeiro,
 //! Thomas and McClain, "Capacitated lot sizing with setup times", Management
-//! Science 35(3):353-366, 1989 (files in ../shared/benchmarks/trigeiro-x).
+//! Science 35(3):353-366, 1989 (the four files in tests/data/trigeiro-x,
+//! copied from the full set; see the README there for source and licence).
 //! The optimal values below were proven by lotwright's MILP (HiGHS) in this
 //! project's benchmark run of 2026-12-02 (docs/benchmarks.md) and are
 //! checked here against the textbook big-M model solved independently by
@@ -14,13 +15,9 @@ use lotwright::input::literature;
 use lotwright::model::Plan;
 
 fn instance(name: &str) -> lotwright::model::Scenario {
-    // The instances live in the team's shared folder beside the project (as
-    // in CI); LOTWRIGHT_BENCHMARKS may point elsewhere.
-    let dir = std::env::var_os("LOTWRIGHT_BENCHMARKS")
-        .map(PathBuf::from)
-        .unwrap_or_else(|| {
-            PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("../shared/benchmarks/trigeiro-x")
-        });
+    // The few instances the tests need are kept in the repository, so that
+    // a clone on its own passes.
+    let dir = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("tests/data/trigeiro-x");
     let path = dir.join(name);
     let text = std::fs::read_to_string(&path)
         .unwrap_or_else(|e| panic!("the benchmark file {} must be present: {e}", path.display()));

@@ -254,6 +254,51 @@ fn the_headline_gives_the_status_first_and_then_what_made_the_plan() {
 }
 
 #[test]
+fn quantities_are_whole_units_unless_lot_multiple_is_zero() {
+    // Fractional forecasts (2.5 a week): item W leaves lot_multiple empty
+    // (whole units), item K sets 0 (continuous, kilograms).
+    let dir = scenario_dir(&[
+        ("scenario.toml", &weekly_toml(3)),
+        (
+            "items.csv",
+            "item,setup_cost,holding_cost,lot_multiple\nW,1,10,\nK,1,10,0\n",
+        ),
+        (
+            "demand.csv",
+            "item,period,quantity\nW,1,2.5\nW,2,4.25\nW,3,1\nK,1,2.5\nK,2,4.25\nK,3,1\n",
+        ),
+    ]);
+    let output = lotwright(&["plan", path(dir.path()), "--json"]);
+    assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
+    let value = json(&output);
+    let quantities = |id: &str| -> Vec<f64> {
+        value["orders"]
+            .as_array()
+            .expect("orders")
+            .iter()
+            .filter(|o| o["item"] == id)
+            .map(|o| o["quantity"].as_f64().expect("a number"))
+            .collect()
+    };
+    // Whole: 3, 4 and 1 (0.25 left after bucket 2 is too little for
+    // bucket 3, and holding 10 a unit makes a lot of 8 up front dearer).
+    assert_eq!(quantities("W"), vec![3.0, 4.0, 1.0]);
+    assert_eq!(quantities("K"), vec![2.5, 4.25, 1.0]);
+    // Every rule has a plan, and the Silver-Meal plan of W is whole.
+    for row in value["comparison"].as_array().expect("comparison") {
+        assert_ne!(row["status"], "infeasible", "{row}");
+    }
+    let text = lotwright(&["plan", path(dir.path()), "--method", "silver-meal", "--json"]);
+    let rule = json(&text);
+    for order in rule["orders"].as_array().expect("orders") {
+        let q = order["quantity"].as_f64().expect("a number");
+        if order["item"] == "W" {
+            assert_eq!(q.fract(), 0.0, "{order}");
+        }
+    }
+}
+
+#[test]
 fn missing_items_csv_exits_2_naming_the_file() {
     let dir = scenario_dir(&[
         ("scenario.toml", &weekly_toml(3)),

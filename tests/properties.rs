@@ -563,3 +563,63 @@ fn brute_force_agrees_with_a_hand_computed_case() {
     };
     assert_eq!(exhaustive_backlog(&backlog), Some(7.5));
 }
+
+/// Whether every quantity of a plan is a whole number.
+fn whole(receipts: &[f64]) -> bool {
+    receipts.iter().all(|q| q.fract() == 0.0)
+}
+
+proptest! {
+    // Fractional demand on a whole item sends the exact method to the
+    // program over stock levels or the MILP: fewer cases.
+    #![proptest_config(ProptestConfig::with_cases(60))]
+
+    /// Whole units, the default (`lot_multiple` 1): with demand, stock
+    /// and receipts off the whole-unit grid, every rule's plan and the
+    /// exact plan are whole, the exact plan is feasible whenever a rule's
+    /// is, and it is never costlier than a feasible rule.
+    #[test]
+    fn every_plan_is_whole_on_a_whole_item(case in fractional_case()) {
+        let mut item = case.item();
+        item.lot_multiple = Some(1.0);
+        for rule in Rule::ALL {
+            let receipts = rules::plan(&item, Sizing::Rule(rule));
+            prop_assert!(whole(&receipts), "{} plan {:?} is not whole", rule.name(), receipts);
+        }
+        let scenario = scenario(vec![item]);
+        let outcome = plan_scenario(&scenario, &Options::default()).expect("the plan runs");
+        let exact = &outcome.comparison[0];
+        prop_assert!(whole(&exact.plan.receipts[0]), "exact plan {:?} is not whole", exact.plan.receipts[0]);
+        for rule in outcome.comparison[1..].iter().filter(|r| r.evaluation.feasible) {
+            prop_assert!(exact.evaluation.feasible);
+            prop_assert!(
+                exact.total_cost() <= rule.total_cost() + 1e-7 * (1.0 + rule.total_cost().abs()),
+                "exact {} above {} {}", exact.total_cost(), rule.method, rule.total_cost()
+            );
+        }
+    }
+}
+
+/// A continuous item (`lot_multiple` 0 in items.csv, `None` here) is still
+/// planned in fractional quantities: demand 2.5 and 4.25 with a setup cost
+/// of 1 and holding of 10 is cheapest lot-for-lot, 2.5 and 4.25 exactly
+/// (hand-computed: one lot of 6.75 would cost 1 + 42.5 against 2).
+#[test]
+fn a_continuous_item_is_planned_in_fractions() {
+    let item = item(&[2.5, 4.25], 1.0, 10.0);
+    assert_eq!(item.lot_multiple, None);
+    let outcome = plan_scenario(&scenario(vec![item]), &Options::default()).expect("plan");
+    let exact = &outcome.comparison[0];
+    assert_eq!(exact.plan.receipts[0], vec![2.5, 4.25]);
+    assert_eq!(exact.total_cost(), 2.0);
+    // The same item in whole units orders 3 and then 4 (the half unit left
+    // from the first lot covers part of bucket 2's need), ending with 0.25:
+    // 2 setups + (0.5 + 0.25) x 10 holding = 9.5; one lot of 7 would cost
+    // 1 + (4.5 + 0.25) x 10 = 48.5.
+    let mut unit = common::item(&[2.5, 4.25], 1.0, 10.0);
+    unit.lot_multiple = Some(1.0);
+    let outcome = plan_scenario(&scenario(vec![unit]), &Options::default()).expect("plan");
+    let exact = &outcome.comparison[0];
+    assert_eq!(exact.plan.receipts[0], vec![3.0, 4.0]);
+    assert!((exact.total_cost() - 9.5).abs() < 1e-9, "{}", exact.total_cost());
+}
