@@ -651,7 +651,11 @@ const CASES: &[Case] = &[
             "items.csv",
             Write(b"item,setup_cost,holding_cost,lot_multiple\nA,80,2,-5\nB,40,1,\n"),
         )],
-        expect: &["line 2, column 4 (lot_multiple)", "must not be negative", "0 for a continuous item"],
+        expect: &[
+            "line 2, column 4 (lot_multiple)",
+            "must not be negative",
+            "0 for a continuous item",
+        ],
     },
     Case {
         name: "items.csv fractional lot_multiple on a whole item",
@@ -661,7 +665,11 @@ const CASES: &[Case] = &[
             "items.csv",
             Write(b"item,setup_cost,holding_cost,lot_multiple\nA,80,2,\nB,40,1,2.5\n"),
         )],
-        expect: &["line 3, column 4 (lot_multiple)", "2.5 is not a whole number", "0 for a continuous item"],
+        expect: &[
+            "line 3, column 4 (lot_multiple)",
+            "2.5 is not a whole number",
+            "0 for a continuous item",
+        ],
     },
     Case {
         name: "items.csv with no lot meeting min, multiple and max",

@@ -288,7 +288,13 @@ fn quantities_are_whole_units_unless_lot_multiple_is_zero() {
     for row in value["comparison"].as_array().expect("comparison") {
         assert_ne!(row["status"], "infeasible", "{row}");
     }
-    let text = lotwright(&["plan", path(dir.path()), "--method", "silver-meal", "--json"]);
+    let text = lotwright(&[
+        "plan",
+        path(dir.path()),
+        "--method",
+        "silver-meal",
+        "--json",
+    ]);
     let rule = json(&text);
     for order in rule["orders"].as_array().expect("orders") {
         let q = order["quantity"].as_f64().expect("a number");

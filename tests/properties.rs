@@ -621,5 +621,9 @@ fn a_continuous_item_is_planned_in_fractions() {
     let outcome = plan_scenario(&scenario(vec![unit]), &Options::default()).expect("plan");
     let exact = &outcome.comparison[0];
     assert_eq!(exact.plan.receipts[0], vec![3.0, 4.0]);
-    assert!((exact.total_cost() - 9.5).abs() < 1e-9, "{}", exact.total_cost());
+    assert!(
+        (exact.total_cost() - 9.5).abs() < 1e-9,
+        "{}",
+        exact.total_cost()
+    );
 }

@@ -620,7 +620,13 @@ fn capacity_bounds(scenario: &Scenario, i: usize, unlimited: bool) -> Vec<f64> {
                     bound = bound.min(room / routing.per_unit);
                 }
             }
-            bound
+            // A whole item receives whole multiples: the most that fits is
+            // the largest multiple within the room (a valid, tighter bound
+            // for the rows below; the slack guards against rounding noise).
+            match item.lot_multiple {
+                Some(multiple) if bound.is_finite() => (bound / multiple + 1e-9).floor() * multiple,
+                _ => bound,
+            }
         })
         .collect()
 }

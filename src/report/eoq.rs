@@ -95,7 +95,7 @@ pub fn text(result: &EoqResult) -> String {
         let _ = writeln!(
             out,
             "\nA lot of {} costs {} per time unit: {} ({:.2} %) more than the economic lot.",
-            number(chosen.lot),
+            super::quantity(chosen.lot),
             money(chosen.total_cost),
             money(chosen.extra_cost),
             chosen.extra_percent

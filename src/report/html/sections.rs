@@ -20,7 +20,12 @@ pub(super) fn comparison_table(scenario: &Scenario, outcome: &Outcome, out: &mut
     if show_overtime {
         header.push("overtime");
     }
-    header.extend(["setups", "avg stock value", "end stock value", "vs exact plan"]);
+    header.extend([
+        "setups",
+        "avg stock value",
+        "end stock value",
+        "vs exact plan",
+    ]);
     let cells: Vec<Vec<(String, bool)>> = rows
         .iter()
         .map(|r| {
