@@ -432,7 +432,14 @@ fn solve_group(
         for (i, exact) in single {
             let item = &scenario.items[i];
             if item.has_lot_constraints() && !meets_lot_constraints(item, &exact.receipts) {
-                // Lot constraints: the program over stock levels for
+                // A lot multiple alone (whole units of a fractional
+                // forecast): the program on rounded requirements.
+                if let Some(rounded) = crate::single::multiple::solve(item) {
+                    lower_bound += rounded.cost;
+                    plan.set(i, rounded.receipts);
+                    continue;
+                }
+                // Other lot constraints: the program over stock levels for
                 // whole quantities, else the MILP, handles them exactly.
                 solve_constrained(
                     scenario,

@@ -627,3 +627,38 @@ fn a_continuous_item_is_planned_in_fractions() {
         exact.total_cost()
     );
 }
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(80))]
+
+    /// The program on rounded requirements (a lot multiple alone, data off
+    /// the grid) against HiGHS on the MILP with integer lot counts, a
+    /// general-purpose solver that knows nothing of the rounding argument:
+    /// the same least cost; the program's plan is in multiples, feasible,
+    /// and costs in `eval` what the program says.
+    #[test]
+    fn rounded_requirements_program_equals_the_milp(
+        case in fractional_case(),
+        multiple in 1u32..=5,
+    ) {
+        use lotwright::capacity::milp::{self, MilpOptions, MilpStatus};
+        let mut item = case.item();
+        item.lot_multiple = Some(f64::from(multiple));
+        let solved = lotwright::single::multiple::solve(&item);
+        let scenario = scenario(vec![item.clone()]);
+        let options = MilpOptions { threads: Some(1), ..MilpOptions::default() };
+        let reference = milp::solve(&scenario, &[0], &options);
+        match solved {
+            None => prop_assert_eq!(reference.status, MilpStatus::Infeasible),
+            Some(plan) => {
+                prop_assert_eq!(reference.status, MilpStatus::Optimal);
+                let m = f64::from(multiple);
+                prop_assert!(plan.receipts.iter().all(|q| (q / m).fract() == 0.0), "{:?}", plan.receipts);
+                let evaluation = evaluate(&scenario, &single_plan(&plan.receipts));
+                prop_assert!(evaluation.feasible, "{:?}", evaluation.violations);
+                prop_assert!(close(evaluation.total_cost(), plan.cost), "eval {} program {}", evaluation.total_cost(), plan.cost);
+                prop_assert!(close(plan.cost, reference.objective), "program {} MILP {}", plan.cost, reference.objective);
+            }
+        }
+    }
+}

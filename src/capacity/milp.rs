@@ -329,12 +329,21 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     let Ok(solved) = model.try_solve() else {
         return failed(periods, items.len(), started);
     };
-    let status = solved.status();
+    // A model with no rows and columns left (nothing to decide: no need)
+    // is solved by its constant: optimal.
+    let empty = matches!(solved.status(), HighsModelStatus::ModelEmpty);
+    let status = if empty {
+        HighsModelStatus::Optimal
+    } else {
+        solved.status()
+    };
     let seconds = started.elapsed().as_secs_f64();
-    let has_plan = matches!(
-        solved.primal_solution_status(),
-        highs::HighsSolutionStatus::Feasible
-    );
+    // Read as a number: on a model that presolve empties HiGHS reports -1,
+    // which the bindings' typed reader refuses with a panic. HiGHS's
+    // code for a feasible solution is 2 (kSolutionStatusFeasible); an
+    // emptied model solved to optimality has its (trivial) plan too.
+    let has_plan = solved.int_info_value(c"primal_solution_status") == Ok(2)
+        || matches!(status, HighsModelStatus::Optimal);
     let hit_time_limit = matches!(status, HighsModelStatus::ReachedTimeLimit);
     if matches!(
         status,
@@ -369,7 +378,7 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     let solution = solved.get_solution();
     let values = solution.columns();
     let objective_value = solved.objective_value() + constant;
-    let dual_bound = if options.relax {
+    let dual_bound = if options.relax || empty {
         objective_value
     } else {
         solved
@@ -386,13 +395,21 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
         .zip(items)
         .map(|(c, &i)| settle(&scenario.items[i], c, &solution_values))
         .collect();
-    let plan_cost = evaluate(
+    let evaluation = evaluate(
         &scenario.subset(items),
         &Plan {
             receipts: receipts.clone(),
         },
-    )
-    .total_cost();
+    );
+    if empty && !evaluation.feasible && !options.extra_capacity && options.elastic.is_none() {
+        // Nothing left to decide, and the plan without orders falls short
+        // (need before the lead time has passed): no plan exists.
+        return MilpResult {
+            lower_bound: f64::INFINITY,
+            ..MilpResult::without_plan(MilpStatus::Infeasible, periods, items.len(), started)
+        };
+    }
+    let plan_cost = evaluation.total_cost();
     // Proof is judged on the plan returned, as evaluated, not on HiGHS's
     // own objective: the two differ when settling the solver's noise
     // changes the plan. (With extra capacity or priced overload the

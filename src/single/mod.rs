@@ -4,6 +4,7 @@
 pub mod eoq;
 pub mod exact;
 pub mod fast;
+pub mod multiple;
 pub mod rules;
 
 use crate::model::Item;
