@@ -45,8 +45,8 @@ pub fn solve(item: &Item) -> Option<ExactPlan> {
     let mut before = 0.0; // A_(t-1)
     let mut on_hand_without_orders = item.initial_stock;
     let mut constant = 0.0;
-    for t in 0..item.periods() {
-        covered += net[t];
+    for (t, need) in net.iter().enumerate() {
+        covered += need;
         // Rounded up to the multiple, with room for float noise.
         let cumulative = if covered <= tolerance {
             0.0
