@@ -67,7 +67,7 @@ pub struct MethodResult {
 impl MethodResult {
     /// Whether this is the exact (least-cost) method rather than a lot rule.
     pub fn is_exact(&self) -> bool {
-        self.method == METHOD_NAMES[0]
+        self.method == EXACT
     }
 
     /// The solvers that produced the plan, joined by `+` (`dp`, `dp+milp`).
@@ -102,9 +102,12 @@ pub struct Options {
     pub milp: MilpOptions,
 }
 
+/// The exact method's name (it was `optimal`, a status word, before).
+pub const EXACT: &str = "exact";
+
 /// The names every method goes by, in the order of the comparison.
 pub const METHOD_NAMES: [&str; 8] = [
-    "exact",
+    EXACT,
     "lot-for-lot",
     "fixed-lot",
     "eoq",
@@ -162,12 +165,11 @@ pub fn plan_scenario_with(
     options: &Options,
     progress: &dyn Progress,
 ) -> crate::error::Result<Outcome> {
-    // `optimal` was the exact method's name before it became `exact`
-    // (a status word must not name a method); it is still understood.
+    // `optimal`, the exact method's former name, is still understood.
     let method = options
         .method
         .as_deref()
-        .map(|m| if m == "optimal" { METHOD_NAMES[0] } else { m });
+        .map(|m| if m == "optimal" { EXACT } else { m });
     if let Some(method) = method {
         if !METHOD_NAMES.contains(&method) {
             return Err(crate::error::Error::usage(format!(
@@ -183,7 +185,7 @@ pub fn plan_scenario_with(
     }
     let wanted = |name: &str| method.is_none_or(|m| m == name);
     let mut comparison = Vec::new();
-    if wanted(METHOD_NAMES[0]) {
+    if wanted(EXACT) {
         comparison.push(solve_exact_with(scenario, &options.milp, progress));
     }
     for rule in Rule::ALL {
@@ -324,7 +326,7 @@ pub fn solve_exact_with(
     };
     MethodResult {
         components,
-        method: METHOD_NAMES[0],
+        method: EXACT,
         status,
         plan,
         evaluation,
