@@ -442,7 +442,7 @@ fn solve_group(
                     continue;
                 }
                 // Other lot constraints: the program over stock levels for
-                // whole quantities, else the MILP, handles them exactly.
+                // items in lot multiples, else the MILP, handles them exactly.
                 solve_constrained(
                     scenario,
                     options,
@@ -524,7 +524,7 @@ fn solve_group(
 }
 
 /// One item with lot constraints or resources of its own: the dynamic
-/// program over stock levels when quantities are whole and the state space
+/// program over stock levels when the item has a lot multiple and the state space
 /// is within its bound, else the MILP (saying why).
 #[allow(clippy::too_many_arguments)]
 fn solve_constrained(

@@ -240,6 +240,50 @@ proptest! {
     }
 }
 
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 60, ..ProptestConfig::default() })]
+
+    /// The same with a fractional forecast and stock (quarters, exact in
+    /// binary) on a whole item: the program's states are counts of
+    /// multiples, so it still finds the brute force's least cost.
+    #[test]
+    fn the_program_equals_a_brute_force_on_fractional_forecasts(
+        quarters in prop::collection::vec(0u32..25, 2..5),
+        setup in 0u32..40,
+        holding in 1u32..4,
+        multiple in prop::sample::select(vec![1.0, 2.0]),
+        min_lot in prop::sample::select(vec![0.0, 3.0]),
+        max_lot in prop::option::of(5u32..9),
+        backlog in prop::option::of(1u32..6),
+        capacity in 3u32..9,
+        overtime in 0u32..3,
+        initial_quarters in 0u32..12,
+        safety in prop::sample::select(vec![0.0, 0.0, 1.5]),
+    ) {
+        let mut s = scenario(
+            quarters.iter().map(|&q| q as f64 / 4.0).collect(),
+            setup as f64, holding as f64 * 0.5, multiple, min_lot,
+            max_lot.map(|m| m as f64), backlog.map(|b| b as f64),
+            capacity as f64, overtime as f64, 0.0, initial_quarters as f64 / 4.0,
+        );
+        s.items[0].safety_stock = safety;
+        let dp = single_dp::solve(&s, 0).expect("within the bound");
+        match (dp, brute_force(&s)) {
+            (None, None) => {}
+            (Some((receipts, cost)), Some(best)) => {
+                prop_assert!(
+                    (cost - best).abs() <= 1e-9 * (1.0 + best.abs()),
+                    "program {} brute force {}", cost, best
+                );
+                let evaluation = evaluate(&s, &Plan { receipts: vec![receipts] });
+                prop_assert!(evaluation.feasible, "{:?}", evaluation.violations);
+                prop_assert!((evaluation.total_cost() - cost).abs() <= 1e-9 * (1.0 + cost.abs()));
+            }
+            (dp, best) => prop_assert!(false, "program {:?} brute force {:?}", dp, best),
+        }
+    }
+}
+
 /// A minimum lot ordered for a safety stock, with scheduled receipts after
 /// it: stock passes "remaining need plus one lot" and the program must
 /// still reach it (it once called this item infeasible; found by the

@@ -1,13 +1,15 @@
 //! The capacitated single item, exact, by dynamic programming over stock
-//! levels, for whole quantities (the item has a `lot_multiple` and its
-//! demand, stock and receipts are whole numbers).
+//! levels, for items planned in lot multiples (whole units: every item with
+//! a `lot_multiple`; its demand, stock and receipts may be fractional).
 //!
-//! The state is the end-of-bucket stock (negative for backlog); a decision is
-//! the number of lot multiples received in a bucket, within min_lot, max_lot
-//! and the capacity (with overtime) of the item's resources in the release
-//! bucket. Every plan whose stock stays between the lowest and highest
-//! state is a path through the states, and some least-cost plan does (costs
-//! are never negative; see `top` below), so the least path is the optimum
+//! The state is the count of multiples received so far, which with the
+//! stock the item would have without orders gives the end-of-bucket stock
+//! (negative for backlog); a decision is the number of lot multiples
+//! received in a bucket, within min_lot, max_lot and the capacity (with
+//! overtime) of the item's resources in the release bucket. Every plan
+//! whose stock stays between the lowest and highest stock allowed is a
+//! path through the states, and some least-cost plan does (costs are never
+//! negative; see `top` below), so the least path is the optimum
 //! (Bellman's principle; the model of Florian and Klein
 //! 1971, "Deterministic production planning with concave costs and capacity
 //! constraints", Management Science 18(1), cited from memory, with general
@@ -25,7 +27,7 @@ pub const STATE_LIMIT: f64 = 2e8;
 /// Why the program does not apply to an item.
 #[derive(Debug, Clone, PartialEq)]
 pub enum NotApplicable {
-    /// Quantities are continuous, or the data are not whole numbers.
+    /// Quantities are continuous (no lot multiple).
     NotWhole,
     /// The state space would pass the limit (its size is given).
     TooLarge(f64),
@@ -35,10 +37,6 @@ pub enum NotApplicable {
 /// `Ok` when no plan exists.
 pub type Solved = Option<(Vec<f64>, f64)>;
 
-fn whole(x: f64) -> bool {
-    x.fract() == 0.0 && x.abs() < 1e9
-}
-
 /// Solves item `i` of `scenario` (which uses resources no other item uses).
 #[allow(clippy::needless_range_loop)]
 pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
@@ -47,15 +45,7 @@ pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
     let Some(multiple) = item.lot_multiple else {
         return Err(NotApplicable::NotWhole);
     };
-    let data_whole = whole(multiple)
-        && whole(item.initial_stock)
-        && item.demand.iter().chain(&item.receipts).all(|&x| whole(x))
-        && whole(item.safety_stock)
-        && whole(item.ending_stock);
-    if !data_whole {
-        return Err(NotApplicable::NotWhole);
-    }
-    let m = multiple as i64;
+    let m = multiple;
     let total_demand: f64 = item.demand.iter().sum();
     let scheduled: f64 = item.receipts.iter().sum();
     let supply: f64 = item.initial_stock + scheduled;
@@ -69,14 +59,31 @@ pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
         + item.min_lot
         + multiple
         + scheduled)
-        .max(supply) as i64
+        .max(supply)
         + m;
     let bottom = if item.allows_backlog() {
-        -(total_demand as i64)
+        -total_demand
     } else {
-        0
+        0.0
     };
-    let levels = (top - bottom + 1) as usize;
+    // The state is the count of multiples received so far, c: stock at the
+    // end of bucket t is `base[t] + c m`, with `base[t]` the stock without
+    // orders (whole or not; the forecast may be fractional).
+    let mut base = Vec::with_capacity(periods);
+    let mut without_orders = item.initial_stock;
+    for t in 0..periods {
+        without_orders += item.receipts[t] - item.demand[t];
+        base.push(without_orders);
+    }
+    // The count never falls, and the last bucket's stock stays under the
+    // ceiling, so the last bucket bounds every count.
+    let end_base = base.last().copied().unwrap_or(item.initial_stock);
+    let most_count = ((top - end_base) / m).ceil();
+    if !most_count.is_finite() || most_count > 1e9 {
+        return Err(NotApplicable::TooLarge(f64::INFINITY));
+    }
+    let most_count = most_count as i64;
+    let levels = (most_count + 1) as usize;
     // Largest lot count per bucket from max_lot and capacity.
     let routings: Vec<_> = scenario.routings_of(i).collect();
     let mut most = vec![0i64; periods];
@@ -85,10 +92,7 @@ pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
             continue;
         }
         let r = j - item.lead_time;
-        let mut cap = item
-            .max_lot
-            .unwrap_or(f64::INFINITY)
-            .min((top - bottom) as f64);
+        let mut cap = item.max_lot.unwrap_or(f64::INFINITY).min(top - bottom);
         for routing in &routings {
             let resource = &scenario.resources[routing.resource];
             let room = resource.capacity[r] + resource.overtime_capacity[r] - routing.setup_time;
@@ -118,7 +122,7 @@ pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
             return Some(0.0);
         }
         let r = j - item.lead_time;
-        let q = (k * m) as f64;
+        let q = k as f64 * m;
         let mut cost = item.setup_cost[r] + item.unit_cost[r] * q;
         for routing in &routings {
             let resource = &scenario.resources[routing.resource];
@@ -133,25 +137,18 @@ pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
         }
         Some(cost)
     };
-    let index = |stock: i64| (stock - bottom) as usize;
     let mut value = vec![f64::INFINITY; levels];
-    let start = item.initial_stock as i64;
-    if start > top {
-        return Err(NotApplicable::TooLarge(f64::INFINITY));
-    }
-    value[index(start)] = 0.0;
+    value[0] = 0.0;
     let mut choice: Vec<Vec<i32>> = Vec::with_capacity(periods);
     for t in 0..periods {
         let mut next = vec![f64::INFINITY; levels];
         let mut picked = vec![-1i32; levels];
-        let floor = item.stock_floor(t);
         let last = t + 1 == periods;
         let lowest = if item.allows_backlog() && !last {
             bottom
         } else {
-            (floor - tolerance).ceil() as i64
-        };
-        let flow = (item.receipts[t] - item.demand[t]) as i64;
+            item.stock_floor(t)
+        } - tolerance;
         let counts: Vec<(i64, f64)> = if t < item.lead_time || most[t] < 0 {
             vec![(0, 0.0)]
         } else {
@@ -160,34 +157,35 @@ pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
                 .filter_map(|k| order_cost(t, k).map(|c| (k, c)))
                 .collect()
         };
-        for (s_index, &v) in value.iter().enumerate() {
+        for (count, &v) in value.iter().enumerate() {
             if !v.is_finite() {
                 continue;
             }
-            let stock = s_index as i64 + bottom;
             for &(k, cost) in &counts {
-                let after = stock + flow + k * m;
-                if after < lowest || after > top {
+                let after = count + k as usize;
+                if after >= levels {
                     continue;
                 }
-                let on_hand = after as f64;
+                let on_hand = base[t] + after as f64 * m;
+                if on_hand < lowest || on_hand > top {
+                    continue;
+                }
                 let keep = if on_hand >= 0.0 {
                     item.holding_cost[t] * on_hand
                 } else {
                     item.backlog_cost.unwrap_or(0.0) * -on_hand
                 };
                 let total = v + cost + keep;
-                let slot = index(after);
-                if total < next[slot] {
-                    next[slot] = total;
-                    picked[slot] = k as i32;
+                if total < next[after] {
+                    next[after] = total;
+                    picked[after] = k as i32;
                 }
             }
         }
         value = next;
         choice.push(picked);
     }
-    let Some((mut slot, best)) = value
+    let Some((mut count, best)) = value
         .iter()
         .copied()
         .enumerate()
@@ -198,11 +196,9 @@ pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
     };
     let mut receipts = vec![0.0; periods];
     for t in (0..periods).rev() {
-        let k = choice[t][slot] as i64;
-        receipts[t] = (k * m) as f64;
-        let after = slot as i64 + bottom;
-        let before = after - (item.receipts[t] - item.demand[t]) as i64 - k * m;
-        slot = index(before);
+        let k = choice[t][count] as usize;
+        receipts[t] = k as f64 * m;
+        count -= k;
     }
     Ok(Some((receipts, best)))
 }
