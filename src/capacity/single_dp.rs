@@ -78,7 +78,19 @@ pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
     // The count never falls, and the last bucket's stock stays under the
     // ceiling, so the last bucket bounds every count.
     let end_base = base.last().copied().unwrap_or(item.initial_stock);
-    let most_count = ((top - end_base) / m).ceil();
+    let mut most_count = ((top - end_base) / m).ceil();
+    if !item.allows_backlog() {
+        // Some least-cost plan receives in all less than the total net
+        // requirement N plus min_lot plus one multiple: in a plan above
+        // that, the last lot either loses a multiple and stays at least
+        // min_lot, or it is below min_lot + m and can go whole; either way
+        // every floor still holds (N is the largest cumulative need) and
+        // no cost rises (costs are never negative; load only falls).
+        let need: f64 = crate::single::net_requirements(item, |t| item.stock_target(t))
+            .iter()
+            .sum();
+        most_count = most_count.min(((need + item.min_lot + m) / m).ceil());
+    }
     if !most_count.is_finite() || most_count > 1e9 {
         return Err(NotApplicable::TooLarge(f64::INFINITY));
     }
