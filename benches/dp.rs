@@ -64,6 +64,7 @@ fn seasonal_item(periods: usize) -> Item {
         fixed_lot: None,
         ending_stock: 0.0,
         receipts: vec![0.0; periods],
+        firm: vec![0.0; periods],
         demand,
     }
 }

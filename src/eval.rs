@@ -40,10 +40,14 @@ pub struct ItemRecord {
     pub planned_receipts: Vec<f64>,
     /// Planned releases by release bucket (receipt bucket minus lead time).
     pub planned_releases: Vec<f64>,
+    /// Firm (pinned) orders by receipt bucket, and by release bucket.
+    pub firm_receipts: Vec<f64>,
+    pub firm_releases: Vec<f64>,
     /// Projected on hand at the end of each bucket; negative is a shortage
     /// (or, for an item that allows it, backlog).
     pub on_hand: Vec<f64>,
     pub costs: Costs,
+    /// Orders in the horizon, firm orders included.
     pub setups: usize,
     /// Mean of the end-of-bucket stock (its positive part).
     pub average_stock: f64,
@@ -124,6 +128,8 @@ pub enum ViolationKind {
     AboveMaxLot,
     /// Lead time puts the release before bucket 1.
     ReleaseBeforeStart,
+    /// A new order released inside the frozen horizon.
+    InsideFrozenHorizon,
     /// Safety stock breached where an order could have prevented it.
     SafetyStock,
     /// Below the ending-stock target, or backlog left at the end.
@@ -274,7 +280,13 @@ pub fn evaluate(scenario: &Scenario, plan: &Plan) -> Evaluation {
     let mut costs = Costs::default();
     for (i, item) in scenario.items.iter().enumerate() {
         let receipts = &plan.receipts[i];
-        let record = evaluate_item(item, receipts, &mut shortages, &mut violations);
+        let record = evaluate_item(
+            item,
+            receipts,
+            scenario.frozen,
+            &mut shortages,
+            &mut violations,
+        );
         costs.add(&record.costs);
         records.push(record);
     }
@@ -292,10 +304,13 @@ pub fn evaluate(scenario: &Scenario, plan: &Plan) -> Evaluation {
     for routing in &scenario.routings {
         let record = &records[routing.item];
         let load = &mut resources[routing.resource];
-        for (t, &quantity) in record.planned_releases.iter().enumerate() {
-            if quantity > 0.0 {
-                load.production[t] += routing.per_unit * quantity;
-                load.setup_time[t] += routing.setup_time;
+        let releases = record.planned_releases.iter().zip(&record.firm_releases);
+        for (t, (&planned, &firm)) in releases.enumerate() {
+            for quantity in [planned, firm] {
+                if quantity > 0.0 {
+                    load.production[t] += routing.per_unit * quantity;
+                    load.setup_time[t] += routing.setup_time;
+                }
             }
         }
     }
@@ -340,6 +355,7 @@ pub fn evaluate(scenario: &Scenario, plan: &Plan) -> Evaluation {
 fn evaluate_item(
     item: &Item,
     receipts: &[f64],
+    frozen: usize,
     shortages: &mut Vec<Shortage>,
     violations: &mut Vec<Violation>,
 ) -> ItemRecord {
@@ -347,6 +363,7 @@ fn evaluate_item(
     let tolerance = quantity_tolerance(item);
     let lead = item.lead_time;
     let mut releases = vec![0.0; periods];
+    let mut firm_releases = vec![0.0; periods];
     let mut on_hand = vec![0.0; periods];
     let mut costs = Costs::default();
     let mut setups = 0;
@@ -361,6 +378,16 @@ fn evaluate_item(
         binding,
     };
     for t in 0..periods {
+        let firm = item.firm[t];
+        if firm > 0.0 {
+            // A firm order is costed and loaded like any order; the reader
+            // keeps its release inside the horizon.
+            setups += 1;
+            let release = t.saturating_sub(lead);
+            costs.setup += item.setup_cost[release];
+            costs.unit += item.unit_cost[release] * firm;
+            firm_releases[release] += firm;
+        }
         let quantity = receipts[t];
         if quantity > 0.0 {
             setups += 1;
@@ -371,6 +398,16 @@ fn evaluate_item(
             costs.setup += item.setup_cost[cost_bucket];
             costs.unit += item.unit_cost[cost_bucket] * quantity;
             match release {
+                Some(r) if r < frozen => {
+                    releases[r] += quantity;
+                    violations.push(violation(
+                        t + 1,
+                        ViolationKind::InsideFrozenHorizon,
+                        quantity,
+                        frozen as f64,
+                        true,
+                    ));
+                }
                 Some(r) => releases[r] += quantity,
                 None => violations.push(violation(
                     t + 1,
@@ -412,9 +449,9 @@ fn evaluate_item(
                 }
             }
         }
-        let available = stock + item.receipts[t] + quantity;
-        met_on_time += item.demand[t].min(available.max(0.0));
-        stock += item.receipts[t] + quantity - item.demand[t];
+        let arriving = item.receipts[t] + firm + quantity;
+        met_on_time += item.demand[t].min((stock + arriving).max(0.0));
+        stock += arriving - item.demand[t];
         on_hand[t] = stock;
         if stock >= 0.0 {
             costs.holding += item.holding_cost[t] * stock;
@@ -431,8 +468,9 @@ fn evaluate_item(
         let last = t + 1 == periods;
         let short = stock < -tolerance && !item.allows_backlog();
         // The end: backlog must be cleared and the ending-stock target met
-        // (where an order can still arrive in time).
-        let reachable = t >= lead;
+        // (where a new order can still arrive in time: after the lead time
+        // and the frozen horizon).
+        let reachable = t >= lead + frozen;
         let end_floor = if reachable { item.ending_stock } else { 0.0 };
         let end_breach =
             last && !short && stock < end_floor - tolerance && (item.allows_backlog() || reachable);
@@ -446,8 +484,9 @@ fn evaluate_item(
             ));
         } else if item.safety_stock > 0.0 && !short && stock < item.safety_stock - tolerance {
             // Safety stock is a floor without backlog, a target with it;
-            // before the lead time has passed no order can restore it, so
-            // such a breach is reported without being binding.
+            // before a new order can arrive (lead time, frozen horizon) no
+            // order can restore it, so such a breach is reported without
+            // being binding.
             let binding = !item.allows_backlog() && reachable;
             violations.push(violation(
                 t + 1,
@@ -477,6 +516,8 @@ fn evaluate_item(
         scheduled_receipts: item.receipts.clone(),
         planned_receipts: receipts.to_vec(),
         planned_releases: releases,
+        firm_receipts: item.firm.clone(),
+        firm_releases,
         on_hand,
         costs,
         setups,

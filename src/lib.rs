@@ -14,6 +14,7 @@ pub mod error;
 pub mod eval;
 pub mod input;
 pub mod model;
+pub mod replan;
 pub mod report;
 pub mod single;
 pub mod solve;

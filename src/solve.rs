@@ -203,12 +203,47 @@ pub fn plan_scenario_with(
     Ok(Outcome { chosen, comparison })
 }
 
+/// A method's result on the free part of a scenario with firm orders or a
+/// frozen horizon (`crate::replan`), put back on the full scenario: the
+/// plan on the full horizon, evaluated there with the firm orders. A bound
+/// of the free part is a bound of the whole once the constant that the
+/// reduction takes out is added back.
+fn lift(scenario: &Scenario, free: &crate::replan::Free, result: MethodResult) -> MethodResult {
+    let plan = free.lift(&result.plan);
+    let evaluation = evaluate(scenario, &plan);
+    let shift = evaluation.total_cost() - result.evaluation.total_cost();
+    let status = match result.status {
+        Status::Optimal | Status::Feasible if !evaluation.feasible => Status::Infeasible,
+        other => other,
+    };
+    let lower_bound = match status {
+        Status::Optimal | Status::Feasible => result.lower_bound.map(|b| b + shift),
+        _ => None,
+    };
+    MethodResult {
+        status,
+        plan,
+        evaluation,
+        lower_bound,
+        notes: free
+            .notes(scenario)
+            .into_iter()
+            .chain(result.notes)
+            .collect(),
+        ..result
+    }
+}
+
 fn has_fixed_lot(scenario: &Scenario) -> bool {
     scenario.items.iter().any(|item| item.fixed_lot.is_some())
 }
 
 /// The plan of one rule for every item.
 pub fn run_rule(scenario: &Scenario, rule: Rule) -> MethodResult {
+    if scenario.has_replanning() {
+        let free = crate::replan::free_part(scenario);
+        return lift(scenario, &free, run_rule(&free.scenario, rule));
+    }
     let receipts = scenario
         .items
         .par_iter()
@@ -260,6 +295,11 @@ pub fn solve_exact_with(
     options: &MilpOptions,
     progress: &dyn Progress,
 ) -> MethodResult {
+    if scenario.has_replanning() {
+        let free = crate::replan::free_part(scenario);
+        let result = solve_exact_with(&free.scenario, options, progress);
+        return lift(scenario, &free, result);
+    }
     let periods = scenario.periods();
     let groups = capacity::components(scenario);
     let milp_total = groups.iter().filter(|g| g.items.len() > 1).count();
@@ -412,7 +452,7 @@ fn solve_group(
             None => {
                 component.status = Status::Infeasible;
                 notes.push(no_plan_note(
-                    &explain_item(item),
+                    &explain_item(item, scenario.period_offset),
                     &format!("item {}", item.id),
                 ));
                 plan.set(i, rules::plan(item, Sizing::Rule(Rule::LotForLot)));
@@ -721,16 +761,18 @@ fn no_plan_note(why: &str, shown: &str) -> String {
 }
 
 /// Why an item has no feasible plan: need before an order can arrive.
-fn explain_item(item: &crate::model::Item) -> String {
+/// `offset` is added to bucket numbers (see `Scenario::period_offset`).
+fn explain_item(item: &crate::model::Item, offset: usize) -> String {
     let mut stock = item.initial_stock;
     for t in 0..item.periods().min(item.lead_time.max(1)) {
         stock += item.receipts[t] - item.demand[t];
         if stock < -crate::eval::quantity_tolerance(item) {
             return format!(
-                "item {}: {} units short in period {}, before an order released in period 1 can arrive (lead time {} buckets); add stock or receipts, or allow backlog",
+                "item {}: {} units short in period {}, before an order released in period {} can arrive (lead time {} buckets); add stock or receipts, or allow backlog",
                 item.id,
                 crate::report::quantity(-stock),
-                t + 1,
+                t + 1 + offset,
+                offset + 1,
                 item.lead_time
             );
         }

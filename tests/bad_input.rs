@@ -1305,6 +1305,97 @@ const CASES: &[Case] = &[
         expect: &["orders.csv, line 3", "lead time", "released in period 3"],
     },
     Case {
+        name: "orders-firm.csv order released before the horizon",
+        base: Plain,
+        file: "orders-firm.csv",
+        edits: &[(
+            "orders-firm.csv",
+            Write(b"item,period,quantity\nA,2,10\nB,1,10\n"),
+        )],
+        expect: &[
+            "orders-firm.csv, line 3, column 2 (period)",
+            "released before the horizon starts",
+            "receipts.csv",
+        ],
+    },
+    Case {
+        name: "orders-firm.csv zero quantity",
+        base: Plain,
+        file: "orders-firm.csv",
+        edits: &[("orders-firm.csv", Write(b"item,period,quantity\nA,2,0\n"))],
+        expect: &["orders-firm.csv, line 2, column 3 (quantity)", "above 0"],
+    },
+    Case {
+        name: "orders-firm.csv fractional quantity of a whole item",
+        base: Plain,
+        file: "orders-firm.csv",
+        edits: &[(
+            "orders-firm.csv",
+            Write(b"item,period,quantity\nA,2,12.5\n"),
+        )],
+        expect: &[
+            "orders-firm.csv, line 2, column 3 (quantity)",
+            "12.5 is not a whole number",
+        ],
+    },
+    Case {
+        name: "orders-firm.csv two orders of one item in one bucket",
+        base: Plain,
+        file: "orders-firm.csv",
+        edits: &[(
+            "orders-firm.csv",
+            Write(b"item,date,quantity\nA,2027-01-11,10\nA,2027-01-11,5\n"),
+        )],
+        expect: &[
+            "orders-firm.csv, line 3",
+            "already has a firm order received in period 2 (line 2)",
+        ],
+    },
+    Case {
+        name: "orders-firm.csv unknown item",
+        base: Plain,
+        file: "orders-firm.csv",
+        edits: &[("orders-firm.csv", Write(b"item,period,quantity\nZ,2,5\n"))],
+        expect: &["orders-firm.csv, line 2, column 1 (item)", "unknown item Z"],
+    },
+    Case {
+        name: "orders-firm.csv unknown kind",
+        base: Plain,
+        file: "orders-firm.csv",
+        edits: &[(
+            "orders-firm.csv",
+            Write(b"item,period,quantity,kind\nA,2,5,fixed\n"),
+        )],
+        expect: &[
+            "orders-firm.csv, line 2, column 4 (kind)",
+            "planned or firm",
+        ],
+    },
+    Case {
+        name: "scenario.toml freezes the whole horizon",
+        base: Plain,
+        file: "scenario.toml",
+        edits: &[(
+            "scenario.toml",
+            Replace("periods = 6\n", "periods = 6\nfrozen_periods = 6\n"),
+        )],
+        expect: &["scenario.toml, line 5", "(frozen_periods)", "from 0 to 5"],
+    },
+    Case {
+        name: "scenario.toml frozen_periods in quotes",
+        base: Plain,
+        file: "scenario.toml",
+        edits: &[(
+            "scenario.toml",
+            Replace("periods = 6\n", "periods = 6\nfrozen_periods = \"2\"\n"),
+        )],
+        expect: &[
+            "scenario.toml, line 5",
+            "(frozen_periods)",
+            "without quotes",
+        ],
+    },
+    Case {
         name: "orders file misspelt column",
         base: Plain,
         file: "orders.csv",
@@ -1357,6 +1448,7 @@ fn the_catalogue_covers_every_input_file() {
         "resources.csv",
         "capacity.csv",
         "routing.csv",
+        "orders-firm.csv",
         ORDERS,
     ];
     for file in files {
@@ -1503,7 +1595,7 @@ fn optional_files_with_only_a_header_are_accepted() {
     let idle = clean_result(Plain, &[("demand.csv", Map(header_only))], false);
     assert_eq!(
         text(&idle),
-        "item,period,date,release_period,release_date,quantity\n"
+        "item,period,date,release_period,release_date,quantity,kind\n"
     );
     // With only a header in routing.csv no item uses the resources.
     let free = clean_result(Shared, &[("routing.csv", Map(header_only))], false);

@@ -41,6 +41,7 @@ fn scenario(
         ending_stock: 0.0,
         demand,
         receipts: vec![0.0; periods],
+        firm: vec![0.0; periods],
     };
     Scenario {
         name: "t".into(),
@@ -63,6 +64,8 @@ fn scenario(
             per_unit: 1.0,
             setup_time,
         }],
+        frozen: 0,
+        period_offset: 0,
     }
 }
 

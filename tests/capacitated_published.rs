@@ -41,6 +41,8 @@ fn one_item_on_one_resource(
             per_unit: 1.0,
             setup_time: 0.0,
         }],
+        frozen: 0,
+        period_offset: 0,
     }
 }
 

@@ -370,7 +370,7 @@ fn out_writes_plan_and_comparison_and_refuses_an_existing_folder() {
     let mut lines = plan_csv.lines();
     assert_eq!(
         lines.next(),
-        Some("item,period,date,release_period,release_date,quantity")
+        Some("item,period,date,release_period,release_date,quantity,kind")
     );
     assert_eq!(
         lines.count(),

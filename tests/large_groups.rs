@@ -68,6 +68,8 @@ fn group(demand: Vec<Vec<u32>>, costs: Vec<(u32, u32)>, both: Vec<bool>, load: f
         items,
         resources: vec![machine("M1", 0.0), machine("M2", 4.0)],
         routings,
+        frozen: 0,
+        period_offset: 0,
     }
 }
 

@@ -27,6 +27,8 @@ fn scenario(items: Vec<Item>, resources: Vec<Resource>, routings: Vec<Routing>) 
         items,
         resources,
         routings,
+        frozen: 0,
+        period_offset: 0,
     }
 }
 

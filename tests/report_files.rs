@@ -56,7 +56,9 @@ fn out_writes_every_file_and_records_match_the_json() {
             "planned_releases",
             "on_hand",
             "shortage",
-            "backlog"
+            "backlog",
+            "firm_receipts",
+            "firm_releases"
         ]
     );
     assert_eq!(records.len(), 1 + 3 * 8, "one row per item and bucket");

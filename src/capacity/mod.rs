@@ -172,11 +172,12 @@ pub fn explain_capacity(scenario: &Scenario, group: &Group, options: &milp::Milp
     let quantity = crate::report::quantity;
     if let Some((r, t, load, capacity)) = cumulative_shortfall(scenario, group) {
         let short = (load - capacity).ceil();
+        let first = scenario.period_offset + 1;
         let (span, those) = if t == 0 {
-            ("in period 1".to_string(), "that period")
+            (format!("in period {first}"), "that period")
         } else {
             (
-                format!("from period 1 to period {}", t + 1),
+                format!("from period {first} to period {}", t + first),
                 "those periods",
             )
         };
@@ -206,7 +207,7 @@ pub fn explain_capacity(scenario: &Scenario, group: &Group, options: &milp::Milp
                 format!(
                     "{} in period {} ({})",
                     quantity((amount * 1000.0).ceil() / 1000.0),
-                    t + 1,
+                    t + 1 + scenario.period_offset,
                     scenario.resources[r].id
                 )
             })
@@ -276,6 +277,8 @@ mod tests {
             resources: vec![resource("P"), resource("Q")],
             // A and C share P; C and D share Q; B has no routing.
             routings: vec![route(0, 0), route(2, 0), route(2, 1), route(3, 1)],
+            frozen: 0,
+            period_offset: 0,
         };
         let groups = components(&scenario);
         assert_eq!(

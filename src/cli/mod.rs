@@ -71,7 +71,37 @@ struct PlanArgs {
     #[arg(long = "item", value_name = "ID")]
     items: Vec<String>,
     #[command(flatten)]
+    freeze: Freeze,
+    #[command(flatten)]
     limits: Limits,
+}
+
+/// The frozen horizon, over scenario.toml's.
+#[derive(Args)]
+struct Freeze {
+    /// Freeze the first N periods: no new order is released there, only
+    /// firm orders (orders-firm.csv) and receipts; overrides frozen_periods
+    /// in scenario.toml (0 unfreezes).
+    #[arg(long, value_name = "N")]
+    frozen: Option<usize>,
+}
+
+impl Freeze {
+    /// Reads the scenario and applies the freeze asked for.
+    fn read(&self, dir: &std::path::Path) -> Result<lotwright::model::Scenario> {
+        let mut scenario = lotwright::input::read_scenario(dir)?;
+        if let Some(frozen) = self.frozen {
+            if frozen >= scenario.periods() {
+                return Err(Error::usage(format!(
+                    "--frozen {frozen} leaves nothing to plan: the horizon has {} periods, so freeze at most {}",
+                    scenario.periods(),
+                    scenario.periods() - 1
+                )));
+            }
+            scenario.frozen = frozen;
+        }
+        Ok(scenario)
+    }
 }
 
 /// Limits of the MILP for items that share capacity.
@@ -148,6 +178,8 @@ struct CheckArgs {
     /// Exit with code 1 when the proposal is not feasible.
     #[arg(long)]
     strict: bool,
+    #[command(flatten)]
+    freeze: Freeze,
     #[command(flatten)]
     limits: Limits,
 }
@@ -247,7 +279,7 @@ fn emit_json(value: &serde_json::Value) -> Result<()> {
 
 fn plan(args: PlanArgs) -> Result<i32> {
     let milp = args.limits.milp()?;
-    let scenario = lotwright::input::read_scenario(&args.dir)?;
+    let scenario = args.freeze.read(&args.dir)?;
     for id in &args.items {
         if scenario.item_index(id).is_none() {
             return Err(Error::usage(format!(
@@ -307,7 +339,7 @@ fn plan(args: PlanArgs) -> Result<i32> {
 
 fn check(args: CheckArgs) -> Result<i32> {
     let milp = args.limits.milp()?;
-    let scenario = lotwright::input::read_scenario(&args.dir)?;
+    let scenario = args.freeze.read(&args.dir)?;
     let proposal = lotwright::input::read_orders(&args.orders, &scenario)?;
     let report = lotwright::check::check(&scenario, &proposal, &milp);
     if args.json {

@@ -216,5 +216,7 @@ fn scenario(name: &str, capacity: f64, rows: &[[f64; 4]], demand: &[Vec<f64>]) -
             overtime_cost: 0.0,
         }],
         routings,
+        frozen: 0,
+        period_offset: 0,
     }
 }

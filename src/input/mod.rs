@@ -99,14 +99,21 @@ pub fn read_scenario(dir: &Path) -> Result<Scenario> {
     let mut resources = read_resources(dir, &calendar)?;
     read_capacity(dir, &calendar, &mut resources)?;
     let routings = read_routing(dir, &index, &resources)?;
-    Ok(Scenario {
+    let mut scenario = Scenario {
         name: settings.name,
         currency: settings.currency,
         calendar,
         items,
         resources,
         routings,
-    })
+        frozen: settings.frozen,
+        period_offset: 0,
+    };
+    let firm = dir.join("orders-firm.csv");
+    if firm.exists() {
+        orders::read_firm_orders(&firm, &mut scenario)?;
+    }
+    Ok(scenario)
 }
 
 /// The bucket of a row, from its `period` or its `date` cell.
@@ -288,6 +295,7 @@ fn read_items(dir: &Path, calendar: &Calendar) -> Result<(Vec<Item>, Vec<Option<
             ending_stock: optional(&file, record, "ending_stock", 0.0)?,
             demand: vec![0.0; periods],
             receipts: vec![0.0; periods],
+            firm: vec![0.0; periods],
         });
         rates.push(holding.rate());
     }

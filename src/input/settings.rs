@@ -12,6 +12,8 @@ pub struct Settings {
     pub name: String,
     pub currency: Option<String>,
     pub calendar: Calendar,
+    /// Release buckets at the start that take no new orders.
+    pub frozen: usize,
 }
 
 /// The keys as written; values are checked by hand so that a wrong type or a
@@ -24,6 +26,7 @@ struct Raw {
     bucket: Option<Spanned<Value>>,
     periods: Option<Spanned<Value>>,
     currency: Option<String>,
+    frozen_periods: Option<Spanned<Value>>,
 }
 
 pub fn read(dir: &Path) -> Result<Settings> {
@@ -148,6 +151,21 @@ pub fn read(dir: &Path) -> Result<Settings> {
             format!("the horizon of {periods} buckets from {start} runs past the year 9999; use fewer periods or an earlier start"),
         ));
     }
+    let frozen = match &raw.frozen_periods {
+        None => 0,
+        Some(value) => match value.get_ref() {
+            Value::Integer(n) if (0..periods as i64).contains(n) => *n as usize,
+            other => {
+                return Err(Error::input(
+                    at(value, "frozen_periods"),
+                    format!(
+                        "frozen_periods = {other} must be a whole number from 0 to {} (fewer than the {periods} periods), without quotes",
+                        periods - 1
+                    ),
+                ))
+            }
+        },
+    };
     let name = raw.name.unwrap_or_else(|| {
         dir.file_name()
             .map(|n| n.to_string_lossy().into_owned())
@@ -157,6 +175,7 @@ pub fn read(dir: &Path) -> Result<Settings> {
         name,
         currency: raw.currency,
         calendar,
+        frozen,
     })
 }
 

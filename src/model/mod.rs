@@ -48,6 +48,12 @@ pub struct Item {
     pub demand: Vec<f64>,
     /// Scheduled receipts (open orders already released), by receipt bucket.
     pub receipts: Vec<f64>,
+    /// Firm orders (orders-firm.csv), by receipt bucket: orders the planner
+    /// has pinned, released inside the horizon (receipt bucket minus lead
+    /// time is bucket 0 or later) and kept as they are by every method.
+    /// They pay their setup and unit cost and load the resources like any
+    /// order; lot constraints do not apply to them.
+    pub firm: Vec<f64>,
 }
 
 impl Item {
@@ -73,6 +79,7 @@ impl Item {
             ending_stock: 0.0,
             demand: demand.to_vec(),
             receipts: vec![0.0; periods],
+            firm: vec![0.0; periods],
         }
     }
 
@@ -146,11 +153,35 @@ pub struct Scenario {
     pub items: Vec<Item>,
     pub resources: Vec<Resource>,
     pub routings: Vec<Routing>,
+    /// The frozen horizon: release buckets `0..frozen` take no new orders,
+    /// only firm orders and receipts (0: nothing is frozen).
+    pub frozen: usize,
+    /// Added to bucket numbers in messages: a scenario cut from a longer
+    /// one (the part after a frozen horizon) names its buckets as the
+    /// planner knows them.
+    #[serde(skip)]
+    pub period_offset: usize,
 }
 
 impl Scenario {
     pub fn periods(&self) -> usize {
         self.calendar.periods
+    }
+
+    /// Whether the planner pinned orders or froze buckets: then the methods
+    /// plan the part of the problem that is still free (`crate::replan`).
+    pub fn has_replanning(&self) -> bool {
+        self.frozen > 0
+            || self
+                .items
+                .iter()
+                .any(|item| item.firm.iter().any(|&q| q > 0.0))
+    }
+
+    /// The first receipt bucket a new order of `item` can reach: its lead
+    /// time after the frozen horizon.
+    pub fn first_arrival(&self, item: &Item) -> usize {
+        self.frozen + item.lead_time
     }
 
     pub fn item_index(&self, id: &str) -> Option<usize> {
@@ -177,6 +208,8 @@ impl Scenario {
             items: items.iter().map(|&i| self.items[i].clone()).collect(),
             resources: self.resources.clone(),
             routings,
+            frozen: self.frozen,
+            period_offset: self.period_offset,
         }
     }
 

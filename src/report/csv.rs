@@ -26,7 +26,9 @@ fn number(value: f64) -> String {
     }
 }
 
-/// plan.csv: `item, period, date, release_period, release_date, quantity`.
+/// plan.csv: `item, period, date, release_period, release_date, quantity,
+/// kind` (`planned`, or `firm` for the firm orders the plan kept; `check`
+/// leaves the firm rows to orders-firm.csv).
 pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
     let mut rows = vec![[
         "item",
@@ -35,20 +37,20 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
         "release_period",
         "release_date",
         "quantity",
+        "kind",
     ]
     .iter()
     .map(|s| s.to_string())
     .collect()];
-    for (item, period, date, release, release_date, quantity) in
-        super::json::order_rows(scenario, &outcome.chosen.plan)
-    {
+    for order in super::json::orders(scenario, &outcome.chosen.plan) {
         rows.push(vec![
-            item,
-            period.to_string(),
-            date,
-            release.to_string(),
-            release_date,
-            number(quantity),
+            order.item,
+            order.period.to_string(),
+            order.date,
+            order.release_period.to_string(),
+            order.release_date,
+            number(order.quantity),
+            order.kind.to_string(),
         ]);
     }
     write_rows(rows)
@@ -109,7 +111,8 @@ pub fn comparison(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
 /// records.csv: the bucket record of every item under the chosen plan, one
 /// row per item and bucket. `on_hand` is end-of-bucket stock (negative is
 /// backlog or shortage); `shortage` is the evaluation's shortage (items
-/// without backlog), `backlog` the units owed by an item that allows it.
+/// without backlog), `backlog` the units owed by an item that allows it;
+/// `firm_receipts` and `firm_releases` are the firm orders (orders-firm.csv).
 pub fn records(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
     let header = [
         "item",
@@ -122,6 +125,8 @@ pub fn records(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
         "on_hand",
         "shortage",
         "backlog",
+        "firm_receipts",
+        "firm_releases",
     ];
     let evaluation = &outcome.chosen.evaluation;
     let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
@@ -139,6 +144,8 @@ pub fn records(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
                 number(record.on_hand[t]),
                 number(shortage),
                 number(backlog),
+                number(record.firm_receipts[t]),
+                number(record.firm_releases[t]),
             ]);
         }
     }

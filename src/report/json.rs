@@ -21,35 +21,43 @@ fn costs(costs: &Costs) -> Value {
     })
 }
 
-#[derive(Serialize)]
-struct Order {
-    item: String,
-    period: usize,
-    date: String,
-    release_period: i64,
-    release_date: String,
-    quantity: f64,
+/// One order of a plan as the outputs list it.
+#[derive(Debug, Clone, Serialize)]
+pub struct Order {
+    pub item: String,
+    pub period: usize,
+    pub date: String,
+    pub release_period: i64,
+    pub release_date: String,
+    pub quantity: f64,
+    /// `planned` (the method's order) or `firm` (orders-firm.csv, kept as
+    /// it is).
+    pub kind: &'static str,
 }
 
-/// The orders of a plan, by item then receipt bucket.
-fn orders(scenario: &Scenario, plan: &Plan) -> Vec<Order> {
+/// The orders of a plan and the scenario's firm orders, by item then
+/// receipt bucket (a firm order first where both fall in one bucket).
+pub fn orders(scenario: &Scenario, plan: &Plan) -> Vec<Order> {
     let calendar = &scenario.calendar;
     let mut orders = Vec::new();
     for (item, row) in scenario.items.iter().zip(&plan.receipts) {
         for (t, &quantity) in row.iter().enumerate() {
-            if quantity > 0.0 {
-                let release = t as i64 - item.lead_time as i64;
-                orders.push(Order {
-                    item: item.id.clone(),
-                    period: t + 1,
-                    date: calendar.label(t),
-                    release_period: release + 1,
-                    release_date: calendar
-                        .signed_bucket_start(release)
-                        .format("%Y-%m-%d")
-                        .to_string(),
-                    quantity: clean(quantity),
-                });
+            for (quantity, kind) in [(item.firm[t], "firm"), (quantity, "planned")] {
+                if quantity > 0.0 {
+                    let release = t as i64 - item.lead_time as i64;
+                    orders.push(Order {
+                        item: item.id.clone(),
+                        period: t + 1,
+                        date: calendar.label(t),
+                        release_period: release + 1,
+                        release_date: calendar
+                            .signed_bucket_start(release)
+                            .format("%Y-%m-%d")
+                            .to_string(),
+                        quantity: clean(quantity),
+                        kind,
+                    });
+                }
             }
         }
     }
@@ -138,6 +146,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Value {
         "start": scenario.calendar.label(0),
         "bucket": scenario.calendar.kind.name(),
         "periods": scenario.periods(),
+        "frozen_periods": scenario.frozen,
         "currency": scenario.currency,
         "method": chosen.method,
         "status": chosen.status.name(),
@@ -178,24 +187,4 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> Value {
         map.extend(extra);
     }
     value
-}
-
-/// The orders of a plan, for the CSV writer too.
-pub fn order_rows(
-    scenario: &Scenario,
-    plan: &Plan,
-) -> Vec<(String, usize, String, i64, String, f64)> {
-    orders(scenario, plan)
-        .into_iter()
-        .map(|o| {
-            (
-                o.item,
-                o.period,
-                o.date,
-                o.release_period,
-                o.release_date,
-                o.quantity,
-            )
-        })
-        .collect()
 }

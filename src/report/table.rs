@@ -330,6 +330,7 @@ fn faults(evaluation: &Evaluation, out: &mut String) {
                 ViolationKind::NotLotMultiple => "lot not a lot_multiple",
                 ViolationKind::AboveMaxLot => "lot above max_lot",
                 ViolationKind::ReleaseBeforeStart => "release before period 1",
+                ViolationKind::InsideFrozenHorizon => "new order in the frozen horizon",
                 ViolationKind::SafetyStock => "stock below safety stock",
                 ViolationKind::EndingStock => "ending stock below target",
             };
@@ -358,29 +359,31 @@ fn orders(scenario: &Scenario, result: &MethodResult, detail: &Detail, out: &mut
         "release",
         "release date",
         "quantity",
+        "kind",
     ]);
-    let rows = super::json::order_rows(scenario, &result.plan);
+    let rows = super::json::orders(scenario, &result.plan);
     if rows.is_empty() {
         let _ = writeln!(out, "  none: stock and open orders cover the horizon");
         return;
     }
     let total = rows.len();
     let chosen = |item: &String| detail.items.is_empty() || detail.items.contains(item);
-    let rows: Vec<_> = rows.into_iter().filter(|r| chosen(&r.0)).collect();
+    let rows: Vec<_> = rows.into_iter().filter(|r| chosen(&r.item)).collect();
     let shown = if detail.all || !detail.items.is_empty() {
         rows.len()
     } else {
         rows.len().min(FEW_ORDERS)
     };
     let hidden = rows.len() - shown;
-    for (item, period, date, release, release_date, q) in rows.into_iter().take(shown) {
+    for o in rows.into_iter().take(shown) {
         grid.push(vec![
-            item,
-            period.to_string(),
-            date,
-            release.to_string(),
-            release_date,
-            quantity(q),
+            o.item,
+            o.period.to_string(),
+            o.date,
+            o.release_period.to_string(),
+            o.release_date,
+            quantity(o.quantity),
+            o.kind.to_string(),
         ]);
     }
     grid.render(out);
@@ -447,13 +450,18 @@ fn records(scenario: &Scenario, evaluation: &Evaluation, i: usize, out: &mut Str
     );
     let calendar = &scenario.calendar;
     let periods = scenario.periods();
-    let lines: [(&str, &Vec<f64>); 5] = [
+    let mut lines: Vec<(&str, &Vec<f64>)> = vec![
         ("gross req.", &record.gross_requirement),
         ("sched. receipts", &record.scheduled_receipts),
+    ];
+    if record.firm_receipts.iter().any(|&q| q > 0.0) {
+        lines.push(("firm receipts", &record.firm_receipts));
+    }
+    lines.extend([
         ("planned receipts", &record.planned_receipts),
         ("planned releases", &record.planned_releases),
         ("on hand", &record.on_hand),
-    ];
+    ]);
     let per_chunk = 9;
     let mut start = 0;
     while start < periods {
@@ -467,7 +475,7 @@ fn records(scenario: &Scenario, evaluation: &Evaluation, i: usize, out: &mut Str
         let mut grid = Grid {
             rows: vec![header, dates],
         };
-        for (label, values) in lines {
+        for &(label, values) in &lines {
             let mut row = vec![label.to_string()];
             row.extend(values[start..end].iter().map(|&v| {
                 let v = if label == "on hand" { v } else { v.max(0.0) };

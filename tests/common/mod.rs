@@ -41,6 +41,8 @@ pub fn scenario(items: Vec<Item>) -> Scenario {
         items,
         resources: Vec::new(),
         routings: Vec::new(),
+        frozen: 0,
+        period_offset: 0,
     }
 }
 

@@ -98,16 +98,17 @@ pub(super) fn items_table(scenario: &Scenario, chosen: &MethodResult, out: &mut 
 }
 
 pub(super) fn orders_table(scenario: &Scenario, chosen: &MethodResult, out: &mut String) {
-    let rows: Vec<Vec<(String, bool)>> = crate::report::json::order_rows(scenario, &chosen.plan)
+    let rows: Vec<Vec<(String, bool)>> = crate::report::json::orders(scenario, &chosen.plan)
         .into_iter()
-        .map(|(item, period, date, release, release_date, q)| {
+        .map(|o| {
             vec![
-                text(item),
-                num(period.to_string()),
-                num(date),
-                num(release.to_string()),
-                num(release_date),
-                num(units(q)),
+                text(o.item),
+                num(o.period.to_string()),
+                num(o.date),
+                num(o.release_period.to_string()),
+                num(o.release_date),
+                num(units(o.quantity)),
+                text(o.kind.to_string()),
             ]
         })
         .collect();
@@ -125,6 +126,7 @@ pub(super) fn orders_table(scenario: &Scenario, chosen: &MethodResult, out: &mut
             "release period",
             "release date",
             "quantity",
+            "kind",
         ],
         &rows,
     );

@@ -189,17 +189,19 @@ pub(super) fn orders(
         ("Release period", 10.0),
         ("Release date", 12.0),
         ("Quantity (units)", 12.0),
+        ("Kind", 9.0),
     ];
-    let rows: Vec<Vec<Cell>> = crate::report::json::order_rows(scenario, &outcome.chosen.plan)
+    let rows: Vec<Vec<Cell>> = crate::report::json::orders(scenario, &outcome.chosen.plan)
         .into_iter()
-        .map(|(item, period, _, release, _, quantity)| {
+        .map(|o| {
             vec![
-                Cell::Text(item),
-                Cell::Count(period),
-                Cell::Date(calendar.bucket_start(period - 1)),
-                Cell::Period(release),
-                Cell::Date(calendar.signed_bucket_start(release - 1)),
-                Cell::Quantity(quantity),
+                Cell::Text(o.item),
+                Cell::Count(o.period),
+                Cell::Date(calendar.bucket_start(o.period - 1)),
+                Cell::Period(o.release_period),
+                Cell::Date(calendar.signed_bucket_start(o.release_period - 1)),
+                Cell::Quantity(o.quantity),
+                Cell::Text(o.kind.to_string()),
             ]
         })
         .collect();
@@ -218,6 +220,7 @@ pub(super) fn stock_records(
         ("Bucket starts", 12.0),
         ("Gross requirement (units)", 13.0),
         ("Scheduled receipts (units)", 13.0),
+        ("Firm orders received (units)", 13.0),
         ("Planned receipts (units)", 13.0),
         ("Planned releases (units)", 13.0),
         ("On hand at end (units)", 13.0),
@@ -235,6 +238,7 @@ pub(super) fn stock_records(
                 Cell::Date(scenario.calendar.bucket_start(t)),
                 Cell::Quantity(record.gross_requirement[t]),
                 Cell::Quantity(record.scheduled_receipts[t]),
+                Cell::Quantity(record.firm_receipts[t]),
                 Cell::Quantity(record.planned_receipts[t]),
                 Cell::Quantity(record.planned_releases[t]),
                 Cell::Quantity(record.on_hand[t]),
