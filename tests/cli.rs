@@ -589,3 +589,111 @@ fn terminal_output_fits_100_columns_with_many_items() {
         assert!(text.contains("Cost by method"));
     }
 }
+
+/// Firm orders and a freeze through the command line: the firm orders are
+/// listed with their kind in the JSON and in plan.csv, `check` reads that
+/// plan.csv back to the same cost (its firm rows are the scenario's, not
+/// the plan's), a new order inside the freeze is a binding breach, and a
+/// freeze over the whole horizon is a usage error.
+#[test]
+fn firm_orders_and_a_freeze_reach_every_output_and_check() {
+    let dir = fixture();
+    std::fs::write(
+        dir.path().join("orders-firm.csv"),
+        "item,period,quantity\nA,1,50\nB,2,20\n",
+    )
+    .expect("orders-firm.csv written");
+    let parent = tempfile::tempdir().expect("a temporary folder");
+    let out = parent.path().join("result");
+    let planned = lotwright(&[
+        "plan",
+        path(dir.path()),
+        "--frozen",
+        "1",
+        "--out",
+        path(&out),
+        "--json",
+    ]);
+    assert_eq!(
+        planned.status.code(),
+        Some(0),
+        "stderr: {}",
+        stderr(&planned)
+    );
+    let value = json(&planned);
+    assert_eq!(value["status"], "optimal");
+    assert_eq!(value["frozen_periods"], 1);
+    let orders = value["orders"].as_array().expect("orders");
+    let firm: Vec<(String, u64, f64)> = orders
+        .iter()
+        .filter(|o| o["kind"] == "firm")
+        .map(|o| {
+            (
+                o["item"].as_str().unwrap_or("").to_string(),
+                o["period"].as_u64().unwrap_or(0),
+                number(o, "quantity"),
+            )
+        })
+        .collect();
+    assert_eq!(firm, vec![("A".into(), 1, 50.0), ("B".into(), 2, 20.0)]);
+    assert!(
+        orders
+            .iter()
+            .filter(|o| o["kind"] == "planned")
+            .all(|o| o["release_period"].as_i64().unwrap_or(0) >= 2),
+        "no new release in the frozen period 1: {orders:?}"
+    );
+    let plan_cost = number(&value, "total_cost");
+    let plan_csv = std::fs::read_to_string(out.join("plan.csv")).expect("plan.csv");
+    assert!(
+        plan_csv.contains("A,1,2027-01-04,1,2027-01-04,50,firm"),
+        "{plan_csv}"
+    );
+    let checked = lotwright(&[
+        "check",
+        path(dir.path()),
+        "--frozen",
+        "1",
+        "--orders",
+        path(&out.join("plan.csv")),
+        "--json",
+    ]);
+    assert_eq!(
+        checked.status.code(),
+        Some(0),
+        "stderr: {}",
+        stderr(&checked)
+    );
+    let report = json(&checked);
+    assert_eq!(report["feasible"], true);
+    assert!((number(&report, "total_cost") - plan_cost).abs() < 1e-9);
+    assert!((number(&report, "best_cost") - plan_cost).abs() < 1e-9);
+    // A proposal that releases a new order in the frozen period 1.
+    let inside = parent.path().join("inside.csv");
+    std::fs::write(&inside, format!("{plan_csv}A,1,,,,5,planned\n")).expect("written");
+    let checked = lotwright(&[
+        "check",
+        path(dir.path()),
+        "--frozen",
+        "1",
+        "--orders",
+        path(&inside),
+        "--json",
+    ]);
+    let report = json(&checked);
+    assert_eq!(report["feasible"], false);
+    let kinds: Vec<&str> = report["violations"]
+        .as_array()
+        .expect("violations")
+        .iter()
+        .filter_map(|v| v["kind"].as_str())
+        .collect();
+    assert!(kinds.contains(&"inside-frozen-horizon"), "{kinds:?}");
+    let whole = lotwright(&["plan", path(dir.path()), "--frozen", "5"]);
+    assert_eq!(whole.status.code(), Some(2));
+    assert!(
+        stderr(&whole).contains("--frozen 5 leaves nothing to plan"),
+        "{}",
+        stderr(&whole)
+    );
+}
