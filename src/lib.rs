@@ -10,6 +10,7 @@
 
 pub mod capacity;
 pub mod check;
+pub mod compare;
 pub mod error;
 pub mod eval;
 pub mod input;

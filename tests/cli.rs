@@ -697,3 +697,131 @@ fn firm_orders_and_a_freeze_reach_every_output_and_check() {
         stderr(&whole)
     );
 }
+
+/// `compare A --set demand.A=200%` plans the same B as a folder whose
+/// demand.csv doubles every row of item A (written here by hand): the
+/// overrides mean what they say. A's side is `plan A`'s plan, the difference is B - A, and
+/// the items' differences add up to it.
+#[test]
+fn compare_sets_two_plans_side_by_side_and_overrides_equal_edited_files() {
+    let dir = fixture();
+    let doubled: String = DEMAND
+        .lines()
+        .enumerate()
+        .map(|(k, line)| {
+            if k == 0 || !line.starts_with("A,") {
+                return format!("{line}\n");
+            }
+            let (head, quantity) = line.rsplit_once(',').expect("item,period,quantity");
+            let quantity: f64 = quantity.parse().expect("a number");
+            format!("{head},{}\n", 2.0 * quantity)
+        })
+        .collect();
+    let edited = scenario_dir(&[
+        ("scenario.toml", &weekly_toml(5)),
+        ("items.csv", ITEMS),
+        ("demand.csv", &doubled),
+    ]);
+    let planned = json(&lotwright(&["plan", path(dir.path()), "--json"]));
+    let by_set = lotwright(&[
+        "compare",
+        path(dir.path()),
+        "--set",
+        "demand.A=200%",
+        "--json",
+    ]);
+    assert_eq!(by_set.status.code(), Some(0), "stderr: {}", stderr(&by_set));
+    let by_set = json(&by_set);
+    let by_file = json(&lotwright(&[
+        "compare",
+        path(dir.path()),
+        path(edited.path()),
+        "--json",
+    ]));
+    let (a, b) = (
+        number(&by_set["a"], "total_cost"),
+        number(&by_set["b"], "total_cost"),
+    );
+    assert!((a - number(&planned, "total_cost")).abs() < 1e-9);
+    assert!(
+        (b - number(&by_file["b"], "total_cost")).abs() < 1e-9,
+        "{b}"
+    );
+    assert!(b > a, "twice the demand costs more: {a} against {b}");
+    assert_eq!(by_set["b"]["status"], "optimal");
+    assert!((number(&by_set["difference"], "total_cost") - (b - a)).abs() < 1e-6);
+    let items: f64 = by_set["items"]
+        .as_array()
+        .expect("items")
+        .iter()
+        .map(|row| number(row, "cost_difference"))
+        .sum();
+    assert!((items - (b - a)).abs() < 1e-6, "{items} against {}", b - a);
+    // The terminal page names both sides and the change.
+    let text = stdout(&lotwright(&[
+        "compare",
+        path(dir.path()),
+        "--set",
+        "demand.A=200%",
+    ]));
+    assert!(text.contains("with demand.A=200%"), "{text}");
+    assert!(text.contains("Items that differ: 1 of 2"), "{text}");
+    // --out writes the page and the JSON, whole.
+    let parent = tempfile::tempdir().expect("a temporary folder");
+    let out = parent.path().join("whatif");
+    let written = lotwright(&[
+        "compare",
+        path(dir.path()),
+        "--set",
+        "setup_cost.A=50%",
+        "--out",
+        path(&out),
+    ]);
+    assert_eq!(
+        written.status.code(),
+        Some(0),
+        "stderr: {}",
+        stderr(&written)
+    );
+    let html = std::fs::read_to_string(out.join("compare.html")).expect("compare.html");
+    assert!(html.contains("setup_cost.A=50%"));
+    let saved: Value =
+        serde_json::from_slice(&std::fs::read(out.join("compare.json")).expect("compare.json"))
+            .expect("JSON");
+    assert!(
+        number(&saved["difference"], "total_cost") < 0.0,
+        "cheaper setups save"
+    );
+}
+
+#[test]
+fn compare_refuses_a_missing_second_side_and_unknown_overrides() {
+    let dir = fixture();
+    for (args, message) in [
+        (vec![], "needs a second scenario folder, or --set"),
+        (vec!["--set", "speed=2"], "speed is not known"),
+        (vec!["--set", "demand.Z=150%"], "no item Z in items.csv"),
+        (
+            vec!["--set", "capacity=90%"],
+            "the scenario has no resources",
+        ),
+        (vec!["--set", "demand=-1"], "not a number of 0 or more"),
+        (vec!["--set", "frozen_periods=5"], "freeze at most 4"),
+    ] {
+        let mut all = vec!["compare", path(dir.path())];
+        all.extend(args.iter().copied());
+        let output = lotwright(&all);
+        assert_eq!(
+            output.status.code(),
+            Some(2),
+            "{args:?}: {}",
+            stderr(&output)
+        );
+        assert!(
+            stderr(&output).contains(message),
+            "{args:?}: {}",
+            stderr(&output)
+        );
+        assert!(output.stdout.is_empty(), "{args:?}");
+    }
+}

@@ -114,34 +114,22 @@ fn console_lines(output: &Output) -> Vec<String> {
         .collect()
 }
 
-#[test]
-fn every_chart_has_a_box_the_console_is_silent_and_a_screenshot_is_saved() {
-    let (_dir, scenario, outcome) = planned();
-    let page = lotwright::report::html::plan(&scenario, &outcome);
+/// Lays `page` out in Chromium: a screenshot saved as `target/{shot}`, no
+/// console message, nothing outside the page referred to; returns every
+/// chart's name and box.
+fn lay_out(page: &str, name: &str, shot: &str) -> Vec<(String, f64, f64)> {
     let folder = PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("report-browser");
     std::fs::create_dir_all(&folder).unwrap();
-    let report = folder.join("report.html");
-    std::fs::write(&report, &page).unwrap();
-
-    // The console check only means something if Chromium reports console
-    // messages here: a page that logs an error must be caught.
-    let canary = folder.join("canary.html");
-    std::fs::write(
-        &canary,
-        "<!DOCTYPE html><body><script>console.error('canary error')</script></body>",
-    )
-    .unwrap();
-    let caught = console_lines(&run_chromium(&["--dump-dom".into()], &canary));
-    assert!(
-        caught.iter().any(|l| l.contains("canary error")),
-        "Chromium does not log console messages to stderr; the check below would be blind"
-    );
-
-    // The report itself: a screenshot, and not one console message.
-    let screenshot = target_dir().join("report-screenshot.png");
+    let report = folder.join(format!("{name}.html"));
+    std::fs::write(&report, page).unwrap();
+    let screenshot = target_dir().join(shot);
     let _ = std::fs::remove_file(&screenshot);
-    let shot = run_chromium(&[format!("--screenshot={}", screenshot.display())], &report);
-    assert_eq!(console_lines(&shot), Vec::<String>::new(), "console output");
+    let taken = run_chromium(&[format!("--screenshot={}", screenshot.display())], &report);
+    assert_eq!(
+        console_lines(&taken),
+        Vec::<String>::new(),
+        "console output"
+    );
     let png = std::fs::read(&screenshot).expect("the screenshot is written");
     assert!(png.starts_with(b"\x89PNG\r\n\x1a\n"), "a PNG file");
     let width = u32::from_be_bytes(png[16..20].try_into().unwrap());
@@ -153,7 +141,7 @@ fn every_chart_has_a_box_the_console_is_silent_and_a_screenshot_is_saved() {
     );
 
     // The chart boxes, measured by the probe copy of the page.
-    let probe = folder.join("report-probe.html");
+    let probe = folder.join(format!("{name}-probe.html"));
     let body_end = page.rfind("</body>").expect("the page has a body");
     std::fs::write(
         &probe,
@@ -186,12 +174,6 @@ fn every_chart_has_a_box_the_console_is_silent_and_a_screenshot_is_saved() {
         .expect("the link count");
     let (_, links, _) = boxes.remove(external);
     assert_eq!(links, 0.0, "the page refers to {links} outside resources");
-    let names: Vec<&str> = boxes.iter().map(|b| b.0.as_str()).collect();
-    // The dump escapes text, so the id with markup is counted, not named.
-    for expected in ["cost-by-method", "load-PRESS", "stock-TIN", "stock-RACK"] {
-        assert!(names.contains(&expected), "chart {expected} in {names:?}");
-    }
-    assert_eq!(boxes.len(), 2 + scenario.items.len(), "{names:?}");
     for (name, width, height) in &boxes {
         assert_ne!(name, "(unnamed)", "every svg is a named chart");
         assert!(
@@ -200,4 +182,66 @@ fn every_chart_has_a_box_the_console_is_silent_and_a_screenshot_is_saved() {
         );
         assert!(*width <= 1280.0, "{name}: wider than the window ({width})");
     }
+    boxes
+}
+
+#[test]
+fn every_chart_has_a_box_the_console_is_silent_and_a_screenshot_is_saved() {
+    let (_dir, scenario, outcome) = planned();
+    let page = lotwright::report::html::plan(&scenario, &outcome);
+    let folder = PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("report-browser");
+    std::fs::create_dir_all(&folder).unwrap();
+
+    // The console check only means something if Chromium reports console
+    // messages here: a page that logs an error must be caught.
+    let canary = folder.join("canary.html");
+    std::fs::write(
+        &canary,
+        "<!DOCTYPE html><body><script>console.error('canary error')</script></body>",
+    )
+    .unwrap();
+    let caught = console_lines(&run_chromium(&["--dump-dom".into()], &canary));
+    assert!(
+        caught.iter().any(|l| l.contains("canary error")),
+        "Chromium does not log console messages to stderr; the check below would be blind"
+    );
+
+    let boxes = lay_out(&page, "report", "report-screenshot.png");
+    let names: Vec<&str> = boxes.iter().map(|b| b.0.as_str()).collect();
+    // The dump escapes text, so the id with markup is counted, not named.
+    for expected in ["cost-by-method", "load-PRESS", "stock-TIN", "stock-RACK"] {
+        assert!(names.contains(&expected), "chart {expected} in {names:?}");
+    }
+    assert_eq!(boxes.len(), 2 + scenario.items.len(), "{names:?}");
+}
+
+/// The page of `compare`: the fixture against itself with the press's
+/// capacity raised and one item's demand doubled. Its stock chart and the
+/// press's load chart are laid out, and the page names both sides.
+#[test]
+fn the_comparison_page_lays_out_with_its_charts() {
+    use lotwright::compare::{apply, parse_override, Comparison, Side};
+    let (_dir, scenario, outcome) = planned();
+    let mut changed = scenario.clone();
+    for text in ["capacity.PRESS=150%", "demand.TIN=200%"] {
+        apply(&mut changed, &parse_override(text).unwrap()).unwrap();
+    }
+    let other = lotwright::solve::plan_scenario(&changed, &Default::default()).unwrap();
+    let comparison = Comparison::new(
+        Side {
+            name: "fixture".into(),
+            scenario,
+            result: outcome.chosen,
+        },
+        Side {
+            name: "fixture with more press and TIN".into(),
+            scenario: changed,
+            result: other.chosen,
+        },
+    );
+    let page = lotwright::report::html::compare(&comparison);
+    assert!(page.contains("fixture with more press and TIN"));
+    let boxes = lay_out(&page, "compare", "compare-screenshot.png");
+    let names: Vec<&str> = boxes.iter().map(|b| b.0.as_str()).collect();
+    assert_eq!(names, ["compare-stock", "compare-load-PRESS"], "{names:?}");
 }

@@ -33,6 +33,8 @@ enum Command {
     Plan(PlanArgs),
     /// Evaluate a proposed plan (planned orders) against a scenario.
     Check(CheckArgs),
+    /// Plan two scenarios (or one and a changed copy) and set them side by side.
+    Compare(CompareArgs),
     /// The classic economic order quantity and its variants.
     Eoq(EoqArgs),
     /// Write a small, explained starter scenario into a new or empty folder.
@@ -185,6 +187,40 @@ struct CheckArgs {
 }
 
 #[derive(Args)]
+struct CompareArgs {
+    /// The first scenario folder (A).
+    a: PathBuf,
+    /// The second scenario folder (B); without it, B is A changed by --set.
+    b: Option<PathBuf>,
+    /// Change B: KEY[.ID]=N sets every bucket to N, KEY[.ID]=N% scales to N
+    /// percent. Keys: capacity and overtime (of a resource, or all),
+    /// demand, setup_cost, holding_cost and unit_cost (of an item, or all),
+    /// frozen_periods. Repeatable, applied in order.
+    #[arg(long = "set", value_name = "KEY=VALUE")]
+    set: Vec<String>,
+    /// Plan both with this method (default: exact).
+    #[arg(long)]
+    method: Option<String>,
+    /// Print one JSON object on stdout instead of tables.
+    #[arg(long)]
+    json: bool,
+    /// Write compare.html (both plans side by side, with charts) and
+    /// compare.json into this folder (created whole, or not at all).
+    #[arg(long, value_name = "DIR")]
+    out: Option<PathBuf>,
+    /// Replace an existing output folder.
+    #[arg(long)]
+    force: bool,
+    /// List every item that differs, not only the first ones.
+    #[arg(long)]
+    detail: bool,
+    #[command(flatten)]
+    freeze: Freeze,
+    #[command(flatten)]
+    limits: Limits,
+}
+
+#[derive(Args)]
 struct EoqArgs {
     /// Demand per time unit (for example per year).
     #[arg(long)]
@@ -230,6 +266,7 @@ pub fn run() -> i32 {
     let result = match cli.command {
         Command::Plan(args) => plan(args),
         Command::Check(args) => check(args),
+        Command::Compare(args) => compare(args),
         Command::Eoq(args) => eoq_command(args),
         Command::Init(args) => init_command(args),
     };
@@ -348,6 +385,92 @@ fn check(args: CheckArgs) -> Result<i32> {
         emit(&report::table::check(&scenario, &report))?;
     }
     Ok(if args.strict && !report.evaluation.feasible {
+        1
+    } else {
+        0
+    })
+}
+
+fn compare(args: CompareArgs) -> Result<i32> {
+    use lotwright::compare::{apply, parse_override, Comparison, Side};
+    let milp = args.limits.milp()?;
+    let overrides = args
+        .set
+        .iter()
+        .map(|text| parse_override(text))
+        .collect::<Result<Vec<_>>>()?;
+    let b_dir = match (&args.b, overrides.is_empty()) {
+        (None, true) => {
+            return Err(Error::usage(
+                "compare needs a second scenario folder, or --set changes to make B from A (for example --set capacity=120%)",
+            ))
+        }
+        (Some(b), _) => b.clone(),
+        (None, false) => args.a.clone(),
+    };
+    let a = args.freeze.read(&args.a)?;
+    let mut b = args.freeze.read(&b_dir)?;
+    for o in &overrides {
+        apply(&mut b, o)?;
+    }
+    let target = match &args.out {
+        Some(out) => {
+            output::Target::prepare(out, &b_dir, args.force)?;
+            Some(output::Target::prepare(out, &args.a, args.force)?)
+        }
+        None => None,
+    };
+    let options = solve::Options {
+        method: args.method.clone(),
+        milp,
+    };
+    let spinner = progress::Spinner::new(!args.json);
+    let planned = solve::plan_scenario_with(&a, &options, &spinner).and_then(|planned_a| {
+        solve::plan_scenario_with(&b, &options, &spinner).map(|planned_b| (planned_a, planned_b))
+    });
+    spinner.finish();
+    let (planned_a, planned_b) = planned?;
+    let (result_a, result_b) = (planned_a.chosen, planned_b.chosen);
+    let mut b_name = b_dir.display().to_string();
+    if !overrides.is_empty() {
+        let changes: Vec<&str> = args.set.iter().map(String::as_str).collect();
+        b_name = format!("{b_name} with {}", changes.join(", "));
+    }
+    let comparison = Comparison::new(
+        Side {
+            name: args.a.display().to_string(),
+            scenario: a,
+            result: result_a,
+        },
+        Side {
+            name: b_name,
+            scenario: b,
+            result: result_b,
+        },
+    );
+    let value = report::json::compare(&comparison);
+    if let Some(target) = target {
+        let json = serde_json::to_vec_pretty(&value).map_err(|e| Error::Internal(e.to_string()))?;
+        target.write(&[
+            (
+                "compare.html",
+                report::html::compare(&comparison).into_bytes(),
+            ),
+            ("compare.json", json),
+        ])?;
+    }
+    if args.json {
+        emit_json(&value)?;
+    } else {
+        emit(&report::table::compare(&comparison, args.detail))?;
+    }
+    let statuses = [comparison.a.result.status, comparison.b.result.status];
+    if !comparison.a.result.is_exact() {
+        return Ok(0);
+    }
+    Ok(if statuses.contains(&Status::Unknown) {
+        4
+    } else if statuses.contains(&Status::Infeasible) {
         1
     } else {
         0

@@ -437,3 +437,74 @@ pub fn load(scenario: &Scenario, resource: usize, result: &MethodResult) -> Stri
     }
     svg.finish()
 }
+
+/// One series of a comparison chart: its legend and value by bucket.
+pub struct Series<'a> {
+    pub label: String,
+    pub values: &'a [f64],
+}
+
+/// Two (or more) series by bucket as steps on one axis, for the page that
+/// sets two scenarios side by side: the first solid blue, the second dashed
+/// orange, further ones dotted. `scenario` gives the buckets' dates.
+pub fn steps(scenario: &Scenario, name: &str, title: &str, series: &[Series]) -> String {
+    let periods = scenario.periods();
+    let (width, height) = (1000.0, 260.0);
+    let (left, right, top, bottom) = (66.0, 16.0, 40.0, 34.0);
+    let mut svg = Svg::new(name, width, height, title);
+    let all = series.iter().flat_map(|s| s.values.iter().copied());
+    let high = all.clone().fold(1.0, f64::max);
+    let low = all.fold(0.0, f64::min);
+    let (values, step) = ticks(low.min(0.0), high * 1.05, 5);
+    let y = Scale::new(
+        (values[0], *values.last().unwrap_or(&high)),
+        (height - bottom, top),
+    );
+    let x = Scale::new((0.0, periods as f64), (left, width - right));
+    for v in &values {
+        let style = if *v == 0.0 {
+            "stroke=\"#999\" stroke-width=\"1\""
+        } else {
+            GRID
+        };
+        svg.line(left, y.map(*v), width - right, y.map(*v), style);
+        svg.text(
+            left - 6.0,
+            y.map(*v) + 4.0,
+            &grouped(*v, step_decimals(step)),
+            "end",
+            AXIS_TEXT,
+        );
+    }
+    let every = bucket_labels(
+        scenario,
+        (width - left - right) / periods.max(1) as f64,
+        60.0,
+    );
+    for t in (0..periods).step_by(every) {
+        svg.text(
+            x.map(t as f64 + 0.5),
+            height - bottom + 16.0,
+            &axis_date(scenario, t),
+            "middle",
+            AXIS_TEXT,
+        );
+    }
+    let mut lx = 8.0;
+    for (k, s) in series.iter().enumerate() {
+        let style = match k {
+            0 => format!("stroke=\"{BLUE}\" stroke-width=\"2.5\""),
+            1 => format!("stroke=\"{ORANGE}\" stroke-width=\"2\" stroke-dasharray=\"7 4\""),
+            2 => format!("stroke=\"{GREEN}\" stroke-width=\"2\" stroke-dasharray=\"2 3\""),
+            _ => format!("stroke=\"{PURPLE}\" stroke-width=\"2\" stroke-dasharray=\"2 5\""),
+        };
+        let mut points = Vec::with_capacity(2 * periods);
+        for (t, v) in s.values.iter().take(periods).enumerate() {
+            points.push((x.map(t as f64), y.map(*v)));
+            points.push((x.map(t as f64 + 1.0), y.map(*v)));
+        }
+        svg.path(&points, &style);
+        lx = svg.legend(lx, 16.0, &s.label, &style, true);
+    }
+    svg.finish()
+}

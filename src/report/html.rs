@@ -190,3 +190,311 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> String {
     let _ = writeln!(out, "<footer>Made by lotwright {}. A plan is decision support: the people who know the plant decide.</footer></main></body></html>", env!("CARGO_PKG_VERSION"));
     out
 }
+
+/// The page of `compare --out`: two plans side by side, their totals, the
+/// items and resources that differ, and charts of stock and load over time.
+pub fn compare(c: &crate::compare::Comparison) -> String {
+    let (a, b) = (&c.a, &c.b);
+    let (ea, eb) = (&a.result.evaluation, &b.result.evaluation);
+    let mut out = String::new();
+    let title = format!("{} against {}", a.name, b.name);
+    let _ = write!(out, "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"><meta name=\"viewport\" content=\"width=device-width, initial-scale=1\"><title>Comparison: {}</title><style>{STYLE}</style></head><body><main>", escape(&title));
+    let _ = write!(
+        out,
+        "<header><h1>Two plans side by side</h1><p class=\"meta\">A: {} ({}). B: {} ({}). Both planned by the {}.</p></header>",
+        escape(&a.name),
+        escape(&a.scenario.name),
+        escape(&b.name),
+        escape(&b.scenario.name),
+        if a.result.is_exact() {
+            "exact method".to_string()
+        } else {
+            format!("{} rule", escape(a.result.method))
+        }
+    );
+    let currency = a.scenario.currency.as_deref();
+    let cash = Cash(currency.filter(|c| b.scenario.currency.as_deref() == Some(c)));
+    let difference = eb.total_cost() - ea.total_cost();
+    let share = if ea.total_cost().abs() > 1e-9 {
+        format!(
+            " ({})",
+            percent(difference.abs() / ea.total_cost().abs(), 1)
+        )
+    } else {
+        String::new()
+    };
+    let lead = if difference.abs() < 0.005 {
+        "B costs the same as A.".to_string()
+    } else if difference < 0.0 {
+        format!("B costs {} less than A{share}.", cash.of(-difference))
+    } else {
+        format!("B costs {} more than A{share}.", cash.of(difference))
+    };
+    out.push_str("<section class=\"summary\"><h2>Summary</h2>");
+    let _ = write!(out, "<p class=\"lead\">{}</p>", escape(&lead));
+    for (label, side) in [("A", a), ("B", b)] {
+        let status = figures::status_phrase(side.result.status, side.result.is_exact());
+        let bound = match (side.result.status, side.result.gap()) {
+            (crate::solve::Status::Feasible, Some(gap)) => format!(
+                ", lower bound {}, gap {}",
+                money(side.result.lower_bound.unwrap_or(0.0)),
+                percent(gap, 2)
+            ),
+            _ => String::new(),
+        };
+        let _ = write!(
+            out,
+            "<p>{label}: {}{}.</p>",
+            escape(&status),
+            escape(&bound)
+        );
+    }
+    let unit = currency.map(|c| format!(", {c}")).unwrap_or_default();
+    out.push_str("<div class=\"cards\">");
+    card(
+        &mut out,
+        &format!("total cost A{unit}"),
+        &money(ea.total_cost()),
+    );
+    card(
+        &mut out,
+        &format!("total cost B{unit}"),
+        &money(eb.total_cost()),
+    );
+    card(&mut out, &format!("B - A{unit}"), &money(difference));
+    card(
+        &mut out,
+        "setups A / B",
+        &format!("{} / {}", ea.setups, eb.setups),
+    );
+    out.push_str("</div></section>");
+    let mut warnings = cautions(&a.scenario, &a.result);
+    for caution in cautions(&b.scenario, &b.result) {
+        if !warnings.contains(&caution) {
+            warnings.push(caution);
+        }
+    }
+    if !warnings.is_empty() {
+        out.push_str("<section class=\"cautions\"><h2>Check before releasing the orders</h2>");
+        for caution in &warnings {
+            let _ = write!(out, "<p>{}</p>", escape(caution));
+        }
+        out.push_str("</section>");
+    }
+    let notes: Vec<String> = [("A", a), ("B", b)]
+        .iter()
+        .flat_map(|(label, side)| {
+            side.result
+                .notes
+                .iter()
+                .map(move |n| format!("{label}: {n}"))
+        })
+        .collect();
+    if !notes.is_empty() {
+        out.push_str("<section class=\"notes\"><h2>Notes</h2><ul>");
+        for note in &notes {
+            let _ = write!(out, "<li>{}</li>", escape(note));
+        }
+        out.push_str("</ul></section>");
+    }
+    out.push_str("<section><h2>Totals</h2>");
+    let row =
+        |label: &str, x: String, y: String, d: String| vec![text(label), num(x), num(y), num(d)];
+    let m = |label: &str, x: f64, y: f64| row(label, money(x), money(y), money(y - x));
+    let rows = vec![
+        m("total cost", ea.total_cost(), eb.total_cost()),
+        m("setup cost", ea.costs.setup, eb.costs.setup),
+        m("holding cost", ea.costs.holding, eb.costs.holding),
+        m("unit cost", ea.costs.unit, eb.costs.unit),
+        m("backlog cost", ea.costs.backlog, eb.costs.backlog),
+        m("overtime cost", ea.costs.overtime, eb.costs.overtime),
+        row(
+            "setups",
+            ea.setups.to_string(),
+            eb.setups.to_string(),
+            (eb.setups as i64 - ea.setups as i64).to_string(),
+        ),
+        m(
+            "average stock value",
+            ea.average_stock_value(&a.scenario),
+            eb.average_stock_value(&b.scenario),
+        ),
+        m(
+            "ending stock value",
+            ea.ending_stock_value(),
+            eb.ending_stock_value(),
+        ),
+        row(
+            "overtime used",
+            units(ea.overtime_used()),
+            units(eb.overtime_used()),
+            units(eb.overtime_used() - ea.overtime_used()),
+        ),
+        row(
+            "fill rate",
+            percent(ea.fill_rate(), 1),
+            percent(eb.fill_rate(), 1),
+            String::new(),
+        ),
+    ];
+    table(&mut out, "", &["", "A", "B", "B - A"], &rows);
+    out.push_str("</section>");
+    // Charts over time need one calendar.
+    if a.scenario.calendar == b.scenario.calendar {
+        let total = |e: &crate::eval::Evaluation| -> Vec<f64> {
+            (0..a.scenario.periods())
+                .map(|t| e.items.iter().map(|r| r.on_hand[t].max(0.0)).sum())
+                .collect()
+        };
+        let (sa, sb) = (total(ea), total(eb));
+        let _ = write!(
+            out,
+            "<section><h2>Stock over time</h2><p>Units on hand at the end of each bucket, all items together.</p><figure>{}</figure></section>",
+            charts::steps(
+                &a.scenario,
+                "compare-stock",
+                "Stock on hand at the end of each bucket, A and B",
+                &[
+                    charts::Series { label: "A".into(), values: &sa },
+                    charts::Series { label: "B".into(), values: &sb },
+                ],
+            )
+        );
+        out.push_str("<section><h2>Load over time</h2><p>Production plus setup time by release bucket, with each side's regular capacity.</p>");
+        for (r, resource) in a.scenario.resources.iter().enumerate() {
+            let Some(rb) = b
+                .scenario
+                .resources
+                .iter()
+                .position(|x| x.id == resource.id)
+            else {
+                continue;
+            };
+            let load = |e: &crate::eval::Evaluation, r: usize| -> Vec<f64> {
+                (0..a.scenario.periods())
+                    .map(|t| e.resources[r].load(t))
+                    .collect()
+            };
+            let (la, lb) = (load(ea, r), load(eb, rb));
+            let (ca, cb) = (&ea.resources[r].capacity, &eb.resources[rb].capacity);
+            let mut series = vec![
+                charts::Series {
+                    label: "load A".into(),
+                    values: &la,
+                },
+                charts::Series {
+                    label: "load B".into(),
+                    values: &lb,
+                },
+                charts::Series {
+                    label: "capacity A".into(),
+                    values: ca,
+                },
+            ];
+            if ca != cb {
+                series.push(charts::Series {
+                    label: "capacity B".into(),
+                    values: cb,
+                });
+            }
+            let _ = write!(
+                out,
+                "<h3>{}</h3><figure>{}</figure>",
+                escape(&resource.id),
+                charts::steps(
+                    &a.scenario,
+                    &format!("compare-load-{}", resource.id),
+                    &format!("Load of {} by bucket, A and B", resource.id),
+                    &series,
+                )
+            );
+        }
+        out.push_str("</section>");
+    }
+    out.push_str("<section><h2>Items</h2><p>Every item's cost, setups and average stock under each plan, the largest change first.</p>");
+    let mut items: Vec<&crate::compare::Row<crate::compare::ItemFigures>> =
+        c.items.iter().collect();
+    let cost = |f: &Option<crate::compare::ItemFigures>| f.as_ref().map_or(0.0, |f| f.cost);
+    items.sort_by(|x, y| {
+        (cost(&y.b) - cost(&y.a))
+            .abs()
+            .total_cmp(&(cost(&x.b) - cost(&x.a)).abs())
+    });
+    let dash = || "-".to_string();
+    let rows: Vec<Vec<(String, bool)>> = items
+        .iter()
+        .map(|row| {
+            let (x, y) = (row.a.as_ref(), row.b.as_ref());
+            vec![
+                text(row.id.clone()),
+                num(x.map_or_else(dash, |f| money(f.cost))),
+                num(y.map_or_else(dash, |f| money(f.cost))),
+                num(money(cost(&row.b) - cost(&row.a))),
+                num(x.map_or_else(dash, |f| f.setups.to_string())),
+                num(y.map_or_else(dash, |f| f.setups.to_string())),
+                num(x.map_or_else(dash, |f| units((f.average_stock * 10.0).round() / 10.0))),
+                num(y.map_or_else(dash, |f| units((f.average_stock * 10.0).round() / 10.0))),
+            ]
+        })
+        .collect();
+    table(
+        &mut out,
+        "",
+        &[
+            "item",
+            "cost A",
+            "cost B",
+            "B - A",
+            "setups A",
+            "setups B",
+            "avg stock A",
+            "avg stock B",
+        ],
+        &rows,
+    );
+    out.push_str("</section>");
+    if !c.resources.is_empty() {
+        out.push_str("<section><h2>Resources</h2><p>Load (production plus setup time) and overtime over the horizon; the busiest bucket is the one with the highest load over regular capacity.</p>");
+        let busiest = |f: &crate::compare::ResourceFigures| match f.peak {
+            Some((t, u)) => format!("{} in period {}", percent(u, 0), t + 1),
+            None => dash(),
+        };
+        let rows: Vec<Vec<(String, bool)>> = c
+            .resources
+            .iter()
+            .map(|row| {
+                let (x, y) = (row.a.as_ref(), row.b.as_ref());
+                vec![
+                    text(row.id.clone()),
+                    num(x.map_or_else(dash, |f| units(f.load.round()))),
+                    num(y.map_or_else(dash, |f| units(f.load.round()))),
+                    num(x.map_or_else(dash, |f| units(f.capacity.round()))),
+                    num(y.map_or_else(dash, |f| units(f.capacity.round()))),
+                    num(x.map_or_else(dash, |f| units(f.overtime.round()))),
+                    num(y.map_or_else(dash, |f| units(f.overtime.round()))),
+                    text(x.map_or_else(dash, busiest)),
+                    text(y.map_or_else(dash, busiest)),
+                ]
+            })
+            .collect();
+        table(
+            &mut out,
+            "",
+            &[
+                "resource",
+                "load A",
+                "load B",
+                "capacity A",
+                "capacity B",
+                "overtime A",
+                "overtime B",
+                "busiest A",
+                "busiest B",
+            ],
+            &rows,
+        );
+        out.push_str("</section>");
+    }
+    let _ = writeln!(out, "<footer>Made by lotwright {}. A plan is decision support: the people who know the plant decide.</footer></main></body></html>", env!("CARGO_PKG_VERSION"));
+    out
+}

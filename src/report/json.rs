@@ -188,3 +188,100 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> Value {
     }
     value
 }
+
+/// One side of `compare`: its plan's totals, status and notes.
+fn side(side: &crate::compare::Side) -> Value {
+    let result = &side.result;
+    let evaluation = &result.evaluation;
+    json!({
+        "name": side.name,
+        "scenario": side.scenario.name,
+        "periods": side.scenario.periods(),
+        "frozen_periods": side.scenario.frozen,
+        "method": result.method,
+        "status": result.status.name(),
+        "solver": result.solver(),
+        "feasible": evaluation.feasible,
+        "total_cost": clean(result.total_cost()),
+        "lower_bound": result.lower_bound.map(clean),
+        "gap": result.gap().map(clean),
+        "costs": costs(&evaluation.costs),
+        "setups": evaluation.setups,
+        "average_stock_value": clean(evaluation.average_stock_value(&side.scenario)),
+        "ending_stock_value": clean(evaluation.ending_stock_value()),
+        "overtime_used": clean(evaluation.overtime_used()),
+        "fill_rate": clean(evaluation.fill_rate()),
+        "notes": result.notes,
+        "cautions": cautions(&side.scenario, result),
+    })
+}
+
+/// The JSON of `compare`: both sides, their difference (B - A), and the
+/// figures of every item and resource on either side (`null` where one
+/// scenario lacks it).
+pub fn compare(c: &crate::compare::Comparison) -> Value {
+    let (ea, eb) = (&c.a.result.evaluation, &c.b.result.evaluation);
+    let diff = |x: f64, y: f64| clean(y - x);
+    let items: Vec<Value> = c
+        .items
+        .iter()
+        .map(|row| {
+            let figures = |f: &Option<crate::compare::ItemFigures>| {
+                f.as_ref().map(|f| {
+                    json!({
+                        "cost": clean(f.cost),
+                        "setups": f.setups,
+                        "average_stock": clean(f.average_stock),
+                        "ending_stock": clean(f.ending_stock),
+                        "fill_rate": clean(f.fill_rate),
+                        "demand": clean(f.demand),
+                    })
+                })
+            };
+            let cost = |f: &Option<crate::compare::ItemFigures>| f.as_ref().map_or(0.0, |f| f.cost);
+            json!({
+                "item": row.id,
+                "a": figures(&row.a),
+                "b": figures(&row.b),
+                "cost_difference": clean(cost(&row.b) - cost(&row.a)),
+            })
+        })
+        .collect();
+    let resources: Vec<Value> = c
+        .resources
+        .iter()
+        .map(|row| {
+            let figures = |f: &Option<crate::compare::ResourceFigures>| {
+                f.as_ref().map(|f| {
+                    json!({
+                        "load": clean(f.load),
+                        "capacity": clean(f.capacity),
+                        "overtime": clean(f.overtime),
+                        "busiest_period": f.peak.map(|(t, _)| t + 1),
+                        "busiest_utilisation": f.peak.map(|(_, u)| clean(u)),
+                    })
+                })
+            };
+            json!({ "resource": row.id, "a": figures(&row.a), "b": figures(&row.b) })
+        })
+        .collect();
+    json!({
+        "a": side(&c.a),
+        "b": side(&c.b),
+        "difference": {
+            "total_cost": diff(ea.total_cost(), eb.total_cost()),
+            "costs": {
+                "setup": diff(ea.costs.setup, eb.costs.setup),
+                "holding": diff(ea.costs.holding, eb.costs.holding),
+                "unit": diff(ea.costs.unit, eb.costs.unit),
+                "backlog": diff(ea.costs.backlog, eb.costs.backlog),
+                "overtime": diff(ea.costs.overtime, eb.costs.overtime),
+            },
+            "setups": eb.setups as i64 - ea.setups as i64,
+            "average_stock_value": diff(ea.average_stock_value(&c.a.scenario), eb.average_stock_value(&c.b.scenario)),
+            "overtime_used": diff(ea.overtime_used(), eb.overtime_used()),
+        },
+        "items": items,
+        "resources": resources,
+    })
+}

@@ -539,3 +539,217 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> String {
     }
     out
 }
+
+/// Items listed in a comparison without `--detail`.
+const FEW_COMPARED: usize = 25;
+
+/// A signed difference of money: `+1,234.50`, `-80.00`, `0.00`.
+fn signed_money(value: f64) -> String {
+    let text = money(value);
+    if text != "0.00" && !text.starts_with('-') {
+        format!("+{text}")
+    } else {
+        text
+    }
+}
+
+/// A signed difference of a count or quantity.
+fn signed_quantity(value: f64) -> String {
+    let text = quantity(value);
+    if text != "0" && !text.starts_with('-') {
+        format!("+{text}")
+    } else {
+        text
+    }
+}
+
+/// The terminal page of `compare`: the two plans' totals, cost by kind,
+/// setups, stock and status side by side, then the items and resources
+/// that differ.
+pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
+    let mut out = String::new();
+    let (a, b) = (&c.a, &c.b);
+    let method = if a.result.is_exact() {
+        "exact method".to_string()
+    } else {
+        format!("{} rule", a.result.method)
+    };
+    let _ = writeln!(out, "Two plans side by side ({method})");
+    for (label, side) in [("A", a), ("B", b)] {
+        let calendar = &side.scenario.calendar;
+        wrap(
+            &format!(
+                "{label}: {} ({}, {} items, {} {}s from {})",
+                side.name,
+                side.scenario.name,
+                side.scenario.items.len(),
+                calendar.periods,
+                calendar.kind.name(),
+                calendar.label(0)
+            ),
+            "  ",
+            &mut out,
+        );
+    }
+    for (label, side) in [("A", a), ("B", b)] {
+        let _ = writeln!(out, "{label}: {}", status_words(&side.result));
+        for note in &side.result.notes {
+            wrap(&format!("Note: {note}"), "  ", &mut out);
+        }
+    }
+    let (ea, eb) = (&a.result.evaluation, &b.result.evaluation);
+    let mut grid = Grid::new(&["", "A", "B", "B - A"]);
+    let money_row = |label: &str, x: f64, y: f64| {
+        vec![label.to_string(), money(x), money(y), signed_money(y - x)]
+    };
+    grid.push(money_row("total cost", ea.total_cost(), eb.total_cost()));
+    for (label, x, y) in [
+        ("  setup", ea.costs.setup, eb.costs.setup),
+        ("  holding", ea.costs.holding, eb.costs.holding),
+        ("  unit", ea.costs.unit, eb.costs.unit),
+        ("  backlog", ea.costs.backlog, eb.costs.backlog),
+        ("  overtime", ea.costs.overtime, eb.costs.overtime),
+    ] {
+        grid.push(money_row(label, x, y));
+    }
+    let bound = |r: &MethodResult| r.lower_bound.map(money).unwrap_or_else(|| "-".into());
+    grid.push(vec![
+        "lower bound".into(),
+        bound(&a.result),
+        bound(&b.result),
+        String::new(),
+    ]);
+    grid.push(vec![
+        "setups".into(),
+        ea.setups.to_string(),
+        eb.setups.to_string(),
+        signed_quantity(eb.setups as f64 - ea.setups as f64),
+    ]);
+    grid.push(money_row(
+        "average stock value",
+        ea.average_stock_value(&a.scenario),
+        eb.average_stock_value(&b.scenario),
+    ));
+    grid.push(money_row(
+        "ending stock value",
+        ea.ending_stock_value(),
+        eb.ending_stock_value(),
+    ));
+    grid.push(vec![
+        "overtime used".into(),
+        quantity(ea.overtime_used()),
+        quantity(eb.overtime_used()),
+        signed_quantity(eb.overtime_used() - ea.overtime_used()),
+    ]);
+    grid.push(vec![
+        "fill rate".into(),
+        format!("{:.1} %", 100.0 * ea.fill_rate()),
+        format!("{:.1} %", 100.0 * eb.fill_rate()),
+        String::new(),
+    ]);
+    out.push('\n');
+    grid.render(&mut out);
+    // Items whose figures differ, the largest change in cost first.
+    let mut differing: Vec<_> = c
+        .items
+        .iter()
+        .filter(|row| match (&row.a, &row.b) {
+            (Some(x), Some(y)) => {
+                (x.cost - y.cost).abs() > 0.005
+                    || x.setups != y.setups
+                    || (x.average_stock - y.average_stock).abs() > 1e-6
+            }
+            _ => true,
+        })
+        .collect();
+    let cost = |f: &Option<crate::compare::ItemFigures>| f.as_ref().map_or(0.0, |f| f.cost);
+    differing.sort_by(|x, y| {
+        let dx = (cost(&x.b) - cost(&x.a)).abs();
+        let dy = (cost(&y.b) - cost(&y.a)).abs();
+        dy.total_cmp(&dx)
+    });
+    let _ = writeln!(
+        out,
+        "\nItems that differ: {} of {}",
+        differing.len(),
+        c.items.len()
+    );
+    if !differing.is_empty() {
+        let mut grid = Grid::new(&[
+            "item",
+            "cost A",
+            "cost B",
+            "B - A",
+            "setups A",
+            "setups B",
+            "avg stock A",
+            "avg stock B",
+        ]);
+        let shown = if all_items {
+            differing.len()
+        } else {
+            differing.len().min(FEW_COMPARED)
+        };
+        let dash = || "-".to_string();
+        for row in &differing[..shown] {
+            let (x, y) = (row.a.as_ref(), row.b.as_ref());
+            grid.push(vec![
+                row.id.clone(),
+                x.map_or_else(dash, |f| money(f.cost)),
+                y.map_or_else(dash, |f| money(f.cost)),
+                signed_money(cost(&row.b) - cost(&row.a)),
+                x.map_or_else(dash, |f| f.setups.to_string()),
+                y.map_or_else(dash, |f| f.setups.to_string()),
+                x.map_or_else(dash, |f| quantity((f.average_stock * 10.0).round() / 10.0)),
+                y.map_or_else(dash, |f| quantity((f.average_stock * 10.0).round() / 10.0)),
+            ]);
+        }
+        grid.render(&mut out);
+        if shown < differing.len() {
+            let _ = writeln!(
+                out,
+                "  ... and {} more: add --detail to list them all",
+                differing.len() - shown
+            );
+        }
+    }
+    if !c.resources.is_empty() {
+        let _ = writeln!(out, "\nResources (load is production plus setup time)");
+        let mut grid = Grid::new(&[
+            "resource",
+            "load A",
+            "load B",
+            "capacity A",
+            "capacity B",
+            "overtime A",
+            "overtime B",
+            "busiest A",
+            "busiest B",
+        ]);
+        let dash = || "-".to_string();
+        let busiest = |f: &crate::compare::ResourceFigures| match f.peak {
+            Some((t, u)) => format!("{:.0} % in {}", 100.0 * u, t + 1),
+            None => dash(),
+        };
+        for row in &c.resources {
+            let (x, y) = (row.a.as_ref(), row.b.as_ref());
+            grid.push(vec![
+                row.id.clone(),
+                x.map_or_else(dash, |f| quantity(f.load.round())),
+                y.map_or_else(dash, |f| quantity(f.load.round())),
+                x.map_or_else(dash, |f| quantity(f.capacity.round())),
+                y.map_or_else(dash, |f| quantity(f.capacity.round())),
+                x.map_or_else(dash, |f| quantity(f.overtime.round())),
+                y.map_or_else(dash, |f| quantity(f.overtime.round())),
+                x.map_or_else(dash, busiest),
+                y.map_or_else(dash, busiest),
+            ]);
+        }
+        grid.render(&mut out);
+        let _ = writeln!(
+            out,
+            "  busiest: the bucket with the highest load over regular capacity"
+        );
+    }
+    out
+}

@@ -1,0 +1,355 @@
+//! Two scenarios side by side: "what if capacity rises, or the promotion
+//! doubles". The second scenario is another folder, or the first with
+//! overrides (`--set capacity.LINE-1=120%`). Both are planned by the same
+//! method; the comparison lines up their cost by kind, setups, stock, load
+//! and status, item by item and resource by resource.
+
+use crate::error::{Error, Result};
+use crate::model::Scenario;
+use crate::solve::MethodResult;
+
+/// What an override changes.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Field {
+    Capacity,
+    Overtime,
+    Demand,
+    SetupCost,
+    HoldingCost,
+    UnitCost,
+    FrozenPeriods,
+}
+
+impl Field {
+    const ALL: [(&'static str, Field); 7] = [
+        ("capacity", Field::Capacity),
+        ("overtime", Field::Overtime),
+        ("demand", Field::Demand),
+        ("setup_cost", Field::SetupCost),
+        ("holding_cost", Field::HoldingCost),
+        ("unit_cost", Field::UnitCost),
+        ("frozen_periods", Field::FrozenPeriods),
+    ];
+
+    fn of_resource(self) -> bool {
+        matches!(self, Field::Capacity | Field::Overtime)
+    }
+}
+
+/// The new value: a number for every bucket, or a percentage of the value
+/// there is.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Change {
+    Set(f64),
+    Percent(f64),
+}
+
+/// One `--set KEY=VALUE`: `capacity`, `overtime` (of a resource, or all),
+/// `demand`, `setup_cost`, `holding_cost`, `unit_cost` (of an item, or
+/// all) or `frozen_periods`; the value `N` or `N%`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Override {
+    pub text: String,
+    pub field: Field,
+    /// A resource or item id; `None` for all of them.
+    pub target: Option<String>,
+    pub change: Change,
+}
+
+/// Reads `KEY[.ID]=N` or `KEY[.ID]=N%`.
+pub fn parse_override(text: &str) -> Result<Override> {
+    let usage = |why: String| Error::usage(format!("--set {text}: {why}"));
+    let (key, value) = text
+        .split_once('=')
+        .ok_or_else(|| usage("write it as KEY=VALUE, for example capacity.LINE-1=120%".into()))?;
+    let (name, target) = match key.split_once('.') {
+        Some((name, id)) if !id.is_empty() => (name, Some(id.to_string())),
+        Some(_) => return Err(usage("an id is missing after the dot".into())),
+        None => (key, None),
+    };
+    let names: Vec<&str> = Field::ALL.iter().map(|(n, _)| *n).collect();
+    let field = Field::ALL
+        .iter()
+        .find(|(n, _)| *n == name)
+        .map(|(_, f)| *f)
+        .ok_or_else(|| {
+            usage(format!(
+                "{name} is not known; use one of {}",
+                names.join(", ")
+            ))
+        })?;
+    if field == Field::FrozenPeriods && target.is_some() {
+        return Err(usage(
+            "frozen_periods applies to the whole scenario; drop the id".into(),
+        ));
+    }
+    let value = value.trim();
+    let (number, percent) = match value.strip_suffix('%') {
+        Some(number) => (number.trim(), true),
+        None => (value, false),
+    };
+    let number: f64 = number
+        .parse()
+        .ok()
+        .filter(|n: &f64| n.is_finite() && *n >= 0.0)
+        .ok_or_else(|| {
+            usage(format!(
+                "{value} is not a number of 0 or more (or a percentage such as 120%)"
+            ))
+        })?;
+    if field == Field::FrozenPeriods && (percent || number.fract() != 0.0) {
+        return Err(usage(
+            "frozen_periods takes a whole number of periods".into(),
+        ));
+    }
+    let change = if percent {
+        Change::Percent(number)
+    } else {
+        Change::Set(number)
+    };
+    Ok(Override {
+        text: text.to_string(),
+        field,
+        target,
+        change,
+    })
+}
+
+/// Applies an override to `scenario`.
+pub fn apply(scenario: &mut Scenario, o: &Override) -> Result<()> {
+    let usage = |why: String| Error::usage(format!("--set {}: {why}", o.text));
+    let update = |values: &mut Vec<f64>| {
+        for v in values.iter_mut() {
+            *v = match o.change {
+                Change::Set(n) => n,
+                Change::Percent(p) => *v * p / 100.0,
+            };
+        }
+    };
+    if o.field == Field::FrozenPeriods {
+        let Change::Set(n) = o.change else {
+            return Err(usage(
+                "frozen_periods takes a whole number of periods".into(),
+            ));
+        };
+        let frozen = n as usize;
+        if frozen >= scenario.periods() {
+            return Err(usage(format!(
+                "the horizon has {} periods, so freeze at most {}",
+                scenario.periods(),
+                scenario.periods() - 1
+            )));
+        }
+        scenario.frozen = frozen;
+        return Ok(());
+    }
+    if o.field.of_resource() {
+        let mut found = false;
+        for resource in &mut scenario.resources {
+            if o.target.as_ref().is_some_and(|id| *id != resource.id) {
+                continue;
+            }
+            found = true;
+            match o.field {
+                Field::Capacity => update(&mut resource.capacity),
+                _ => update(&mut resource.overtime_capacity),
+            }
+        }
+        if !found {
+            return Err(usage(match &o.target {
+                Some(id) => format!("no resource {id} in resources.csv"),
+                None => "the scenario has no resources".to_string(),
+            }));
+        }
+        return Ok(());
+    }
+    let mut found = false;
+    for item in &mut scenario.items {
+        if o.target.as_ref().is_some_and(|id| *id != item.id) {
+            continue;
+        }
+        found = true;
+        match o.field {
+            Field::Demand => update(&mut item.demand),
+            Field::SetupCost => {
+                update(&mut item.setup_cost);
+                item.nominal_setup_cost = changed(item.nominal_setup_cost, o.change);
+            }
+            Field::HoldingCost => {
+                update(&mut item.holding_cost);
+                item.nominal_holding_cost = changed(item.nominal_holding_cost, o.change);
+            }
+            _ => update(&mut item.unit_cost),
+        }
+    }
+    if !found {
+        return Err(usage(match &o.target {
+            Some(id) => format!("no item {id} in items.csv"),
+            None => "the scenario has no items".to_string(),
+        }));
+    }
+    Ok(())
+}
+
+fn changed(value: f64, change: Change) -> f64 {
+    match change {
+        Change::Set(n) => n,
+        Change::Percent(p) => value * p / 100.0,
+    }
+}
+
+/// One item's figures under one plan.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ItemFigures {
+    pub cost: f64,
+    pub setups: usize,
+    pub average_stock: f64,
+    pub ending_stock: f64,
+    pub fill_rate: f64,
+    pub demand: f64,
+}
+
+/// One resource's figures under one plan.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ResourceFigures {
+    /// Production plus setup time over the horizon.
+    pub load: f64,
+    pub capacity: f64,
+    pub overtime: f64,
+    /// The busiest bucket (0-based) and its load over regular capacity.
+    pub peak: Option<(usize, f64)>,
+}
+
+/// A row of the comparison: the figures on either side (`None` where the
+/// item or resource is not in that scenario).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Row<T> {
+    pub id: String,
+    pub a: Option<T>,
+    pub b: Option<T>,
+}
+
+/// One side: its name, scenario and plan.
+#[derive(Debug, Clone)]
+pub struct Side {
+    /// The folder, or the folder with the overrides.
+    pub name: String,
+    pub scenario: Scenario,
+    pub result: MethodResult,
+}
+
+#[derive(Debug, Clone)]
+pub struct Comparison {
+    pub a: Side,
+    pub b: Side,
+    pub items: Vec<Row<ItemFigures>>,
+    pub resources: Vec<Row<ResourceFigures>>,
+}
+
+impl Comparison {
+    pub fn new(a: Side, b: Side) -> Comparison {
+        let items = rows(
+            a.scenario.items.iter().map(|i| i.id.as_str()),
+            b.scenario.items.iter().map(|i| i.id.as_str()),
+            |side: &Side, id| item_figures(side, id),
+            &a,
+            &b,
+        );
+        let resources = rows(
+            a.scenario.resources.iter().map(|r| r.id.as_str()),
+            b.scenario.resources.iter().map(|r| r.id.as_str()),
+            |side: &Side, id| resource_figures(side, id),
+            &a,
+            &b,
+        );
+        Comparison {
+            a,
+            b,
+            items,
+            resources,
+        }
+    }
+}
+
+/// The ids of A in order, then those only in B.
+fn rows<'a, T>(
+    in_a: impl Iterator<Item = &'a str>,
+    in_b: impl Iterator<Item = &'a str>,
+    figures: impl Fn(&Side, &str) -> Option<T>,
+    a: &Side,
+    b: &Side,
+) -> Vec<Row<T>> {
+    let mut ids: Vec<&str> = in_a.collect();
+    for id in in_b {
+        if !ids.contains(&id) {
+            ids.push(id);
+        }
+    }
+    ids.into_iter()
+        .map(|id| Row {
+            id: id.to_string(),
+            a: figures(a, id),
+            b: figures(b, id),
+        })
+        .collect()
+}
+
+fn item_figures(side: &Side, id: &str) -> Option<ItemFigures> {
+    let i = side.scenario.item_index(id)?;
+    let record = &side.result.evaluation.items[i];
+    Some(ItemFigures {
+        cost: record.costs.total(),
+        setups: record.setups,
+        average_stock: record.average_stock,
+        ending_stock: record.ending_stock,
+        fill_rate: record.fill_rate,
+        demand: record.gross_requirement.iter().sum(),
+    })
+}
+
+fn resource_figures(side: &Side, id: &str) -> Option<ResourceFigures> {
+    let r = side.scenario.resources.iter().position(|r| r.id == id)?;
+    let load = &side.result.evaluation.resources[r];
+    let periods = load.capacity.len();
+    let peak = (0..periods)
+        .filter(|&t| load.capacity[t] > 0.0)
+        .map(|t| (t, load.load(t) / load.capacity[t]))
+        .fold(None, |best: Option<(usize, f64)>, (t, u)| match best {
+            Some((_, b)) if b >= u => best,
+            _ => Some((t, u)),
+        });
+    Some(ResourceFigures {
+        load: (0..periods).map(|t| load.load(t)).sum(),
+        capacity: load.capacity.iter().sum(),
+        overtime: load.overtime.iter().sum(),
+        peak,
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn overrides_read_a_key_an_id_and_a_value_or_a_percentage() {
+        let o = parse_override("capacity.LINE-1=120%").expect("valid");
+        assert_eq!(o.field, Field::Capacity);
+        assert_eq!(o.target.as_deref(), Some("LINE-1"));
+        assert_eq!(o.change, Change::Percent(120.0));
+        let o = parse_override("demand=200%").expect("valid");
+        assert_eq!((o.field, o.target), (Field::Demand, None));
+        let o = parse_override("frozen_periods=2").expect("valid");
+        assert_eq!(o.change, Change::Set(2.0));
+        for bad in [
+            "capacity",
+            "speed=3",
+            "capacity.=3",
+            "demand=-5",
+            "demand=lots",
+            "frozen_periods=50%",
+            "frozen_periods.A=1",
+        ] {
+            assert!(parse_override(bad).is_err(), "{bad} is refused");
+        }
+    }
+}
