@@ -16,6 +16,7 @@ pub mod eval;
 pub mod input;
 pub mod model;
 pub mod replan;
+pub mod roll;
 pub mod report;
 pub mod single;
 pub mod solve;

@@ -200,13 +200,17 @@ impl Free {
     /// What a planner should read about the freeze and the firm orders.
     pub fn notes(&self, scenario: &Scenario) -> Vec<String> {
         let quantity = crate::report::quantity;
+        // Buckets as the planner knows them (a window of a longer run
+        // starts later than period 1).
+        let offset = scenario.period_offset;
         let mut notes = Vec::new();
         for s in &self.shortfalls {
             let item = &scenario.items[s.item];
             let arrival = scenario.first_arrival(item) + 1;
             let when = if arrival <= scenario.periods() {
                 format!(
-                    "the first new order can arrive in period {arrival}, and the plan brings the units in then"
+                    "the first new order can arrive in period {}, and the plan brings the units in then",
+                    arrival + offset
                 )
             } else {
                 "no new order can arrive before the horizon ends".to_string()
@@ -215,19 +219,22 @@ impl Free {
                 1 => "1 bucket".to_string(),
                 n => format!("{n} buckets"),
             };
+            let frozen = match scenario.frozen {
+                1 => format!("release in period {} is frozen", offset + 1),
+                n => format!("releases in periods {} to {} are frozen", offset + 1, offset + n),
+            };
             notes.push(format!(
-                "item {}: short from period {} (up to {} units), inside the frozen horizon: releases in periods 1 to {} are frozen (only firm orders and receipts), and with a lead time of {lead} {when}. Add or enlarge a firm order, expedite a receipt, shorten the freeze, or allow backlog",
+                "item {}: short from period {} (up to {} units), inside the frozen horizon: {frozen} (only firm orders and receipts), and with a lead time of {lead} {when}. Add or enlarge a firm order, expedite a receipt, shorten the freeze, or allow backlog",
                 item.id,
-                s.bucket + 1,
+                s.bucket + 1 + offset,
                 quantity(s.quantity),
-                scenario.frozen,
             ));
         }
         for o in &self.overloads {
             notes.push(format!(
                 "resource {}: the firm orders released in period {} alone load it to {}, beyond its capacity with overtime ({}); move or split a firm order",
                 scenario.resources[o.resource].id,
-                o.bucket + 1,
+                o.bucket + 1 + offset,
                 quantity(o.load),
                 quantity(o.limit),
             ));

@@ -35,6 +35,9 @@ enum Command {
     Check(CheckArgs),
     /// Plan two scenarios (or one and a changed copy) and set them side by side.
     Compare(CompareArgs),
+    /// Replan bucket by bucket over a folder of forecast snapshots and
+    /// report realised cost, service and plan stability by method.
+    Roll(RollArgs),
     /// The classic economic order quantity and its variants.
     Eoq(EoqArgs),
     /// Write a small, explained starter scenario into a new or empty folder.
@@ -221,6 +224,41 @@ struct CompareArgs {
 }
 
 #[derive(Args)]
+struct RollArgs {
+    /// The scenario folder; its periods must cover the whole run and the
+    /// planning horizon after the last week.
+    dir: PathBuf,
+    /// The folder of forecast snapshots, one per bucket, named by the date
+    /// the bucket starts (2027-01-04.csv), laid out like demand.csv.
+    #[arg(long, value_name = "DIR")]
+    history: PathBuf,
+    /// Buckets each plan looks ahead.
+    #[arg(long, value_name = "N", default_value_t = 13)]
+    horizon: usize,
+    /// Run only this method (repeatable): exact or a rule's name. Default:
+    /// the exact method and every rule.
+    #[arg(long = "method", value_name = "NAME")]
+    methods: Vec<String>,
+    /// Price a change of plan: added to the setup cost of an order in a
+    /// bucket where the previous plan had none of that item. The exact
+    /// method then runs with and without it.
+    #[arg(long, value_name = "C")]
+    change_cost: Option<f64>,
+    /// Print one JSON object on stdout instead of tables.
+    #[arg(long)]
+    json: bool,
+    #[command(flatten)]
+    freeze: Freeze,
+    /// Seconds each week's MILP may run (default 5); a plan cut short is
+    /// reported as feasible with its gap.
+    #[arg(long, value_name = "S")]
+    time_limit: Option<f64>,
+    /// Threads HiGHS may use (default: its own choice).
+    #[arg(long, value_name = "N")]
+    threads: Option<u32>,
+}
+
+#[derive(Args)]
 struct EoqArgs {
     /// Demand per time unit (for example per year).
     #[arg(long)]
@@ -267,6 +305,7 @@ pub fn run() -> i32 {
         Command::Plan(args) => plan(args),
         Command::Check(args) => check(args),
         Command::Compare(args) => compare(args),
+        Command::Roll(args) => roll_command(args),
         Command::Eoq(args) => eoq_command(args),
         Command::Init(args) => init_command(args),
     };
@@ -475,6 +514,93 @@ fn compare(args: CompareArgs) -> Result<i32> {
     } else {
         0
     })
+}
+
+fn roll_command(args: RollArgs) -> Result<i32> {
+    use lotwright::roll::{roll, RollOptions};
+    let limits = Limits {
+        time_limit: Some(args.time_limit.unwrap_or(5.0)),
+        gap: None,
+        threads: args.threads,
+        solver: "auto".into(),
+    };
+    let milp = limits.milp()?;
+    if args.horizon == 0 {
+        return Err(Error::usage("--horizon must be at least 1 bucket"));
+    }
+    let change_cost = match args.change_cost {
+        Some(c) if !(c.is_finite() && c >= 0.0) => {
+            return Err(Error::usage(format!(
+                "--change-cost must be a number of 0 or more, got {c}"
+            )))
+        }
+        other => other.unwrap_or(0.0),
+    };
+    let scenario = args.freeze.read(&args.dir)?;
+    let frozen = scenario.frozen;
+    if frozen >= args.horizon {
+        return Err(Error::usage(format!(
+            "a freeze of {frozen} buckets leaves nothing to plan in a horizon of {}; freeze fewer or look further ahead",
+            args.horizon
+        )));
+    }
+    let history = lotwright::input::read_history(&args.history, &scenario)?;
+    let mut methods: Vec<String> = if args.methods.is_empty() {
+        solve::METHOD_NAMES
+            .iter()
+            .filter(|m| **m != "fixed-lot" || scenario.items.iter().any(|i| i.fixed_lot.is_some()))
+            .map(|m| m.to_string())
+            .collect()
+    } else {
+        args.methods.clone()
+    };
+    for m in &mut methods {
+        if m == "optimal" {
+            *m = solve::EXACT.to_string();
+        }
+        if !solve::METHOD_NAMES.contains(&m.as_str()) {
+            return Err(Error::usage(format!(
+                "unknown method {m}; choose one of {}",
+                solve::METHOD_NAMES.join(", ")
+            )));
+        }
+    }
+    let mut runs: Vec<(String, f64)> = Vec::new();
+    for m in &methods {
+        runs.push((m.clone(), 0.0));
+        if m == solve::EXACT && change_cost > 0.0 {
+            runs.push((m.clone(), change_cost));
+        }
+    }
+    let progress = progress::RollLine::new(!args.json);
+    let mut results = Vec::new();
+    for (method, cost) in runs {
+        let options = RollOptions {
+            horizon: args.horizon,
+            frozen,
+            change_cost: cost,
+            method,
+            milp: milp.clone(),
+        };
+        results.push(roll(&scenario, &history, &options, &progress)?);
+    }
+    progress.finish();
+    let run = report::table::RollRun {
+        scenario: &scenario,
+        weeks: history.len(),
+        first: history.first().map_or(0, |s| s.bucket),
+        horizon: args.horizon,
+        frozen,
+        change_cost,
+        time_limit: milp.time_limit,
+        results: &results,
+    };
+    if args.json {
+        emit_json(&report::json::roll(&run))?;
+    } else {
+        emit(&report::table::roll(&run))?;
+    }
+    Ok(0)
 }
 
 fn init_command(args: InitArgs) -> Result<i32> {

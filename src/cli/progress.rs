@@ -154,3 +154,31 @@ mod tests {
         );
     }
 }
+
+/// One line on stderr, rewritten as each week of a rolling run is planned
+/// (only on a terminal, and not with `--json`).
+pub struct RollLine {
+    show: bool,
+}
+
+impl RollLine {
+    pub fn new(show: bool) -> RollLine {
+        RollLine {
+            show: show && std::io::stderr().is_terminal(),
+        }
+    }
+
+    pub fn finish(&self) {
+        if self.show {
+            eprint!("\r{:70}\r", "");
+        }
+    }
+}
+
+impl lotwright::roll::RollProgress for RollLine {
+    fn week_done(&self, label: &str, week: usize, weeks: usize, status: Status) {
+        if self.show {
+            eprint!("\r{label}: week {week} of {weeks} planned ({})   ", status.name());
+        }
+    }
+}

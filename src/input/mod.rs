@@ -523,3 +523,117 @@ fn read_routing(
     }
     Ok(routings)
 }
+
+/// One weekly forecast of a rolling run: the demand forecast made at the
+/// start of bucket `bucket`, by item and bucket of the scenario (zero
+/// before `bucket`).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Snapshot {
+    pub bucket: usize,
+    pub demand: Vec<Vec<f64>>,
+    pub file: std::path::PathBuf,
+}
+
+/// Reads a folder of forecast snapshots for `lotwright roll`: one file per
+/// bucket, named by the date the bucket starts (`2027-01-04.csv`), in the
+/// layout of demand.csv. A `period` in a snapshot counts from the
+/// snapshot's own bucket (period 1); a `date` must fall in it or later.
+/// The snapshots must follow one another bucket by bucket, inside the
+/// scenario's horizon. Files that are not `.csv` are left alone.
+pub fn read_history(dir: &Path, scenario: &Scenario) -> Result<Vec<Snapshot>> {
+    let entries = std::fs::read_dir(dir).map_err(|e| {
+        let message = if e.kind() == std::io::ErrorKind::NotFound {
+            "the forecast history folder is missing; check the path given to --history".to_string()
+        } else {
+            format!("cannot read the folder: {e}")
+        };
+        Error::input(Location::file(dir), message)
+    })?;
+    let calendar = &scenario.calendar;
+    let mut dated = Vec::new();
+    for entry in entries {
+        let entry = entry.map_err(|e| Error::input(Location::file(dir), e.to_string()))?;
+        let path = entry.path();
+        if path.extension().and_then(|e| e.to_str()) != Some("csv") {
+            continue;
+        }
+        let stem = path.file_stem().and_then(|s| s.to_str()).unwrap_or("");
+        let date = chrono::NaiveDate::parse_from_str(stem, "%Y-%m-%d").map_err(|_| {
+            Error::input(
+                Location::file(&path),
+                "a forecast snapshot is named by the date its first bucket starts, such as 2027-01-04.csv",
+            )
+        })?;
+        let bucket = match calendar.place(date) {
+            DatePlace::Inside(t) if calendar.bucket_start(t) == date => t,
+            DatePlace::Inside(t) => {
+                return Err(Error::input(
+                    Location::file(&path),
+                    format!(
+                        "{date} is not the first day of a bucket; the bucket holding it starts on {}",
+                        calendar.label(t)
+                    ),
+                ))
+            }
+            _ => {
+                return Err(Error::input(
+                    Location::file(&path),
+                    format!(
+                        "{date} is outside the scenario's horizon ({} to {}); scenario.toml's periods must cover every week of the run and the planning horizon after the last",
+                        calendar.label(0),
+                        calendar.end()
+                    ),
+                ))
+            }
+        };
+        dated.push((bucket, path));
+    }
+    dated.sort();
+    if dated.is_empty() {
+        return Err(Error::input(
+            Location::file(dir),
+            "the folder holds no forecast snapshots (files named by date, such as 2027-01-04.csv)",
+        ));
+    }
+    for pair in dated.windows(2) {
+        if pair[1].0 != pair[0].0 + 1 {
+            return Err(Error::input(
+                Location::file(&pair[1].1),
+                format!(
+                    "the snapshots must follow one another bucket by bucket, and the one for {} is missing",
+                    calendar.label(pair[0].0 + 1)
+                ),
+            ));
+        }
+    }
+    let index: HashMap<String, usize> = scenario
+        .items
+        .iter()
+        .enumerate()
+        .map(|(i, item)| (item.id.clone(), i))
+        .collect();
+    let periods = scenario.periods();
+    dated
+        .into_iter()
+        .map(|(bucket, path)| {
+            let from = Calendar {
+                start: calendar.bucket_start(bucket),
+                periods: periods - bucket,
+                ..calendar.clone()
+            };
+            let mut demand = vec![vec![0.0; periods]; scenario.items.len()];
+            let (folder, name) = (
+                path.parent().unwrap_or(dir),
+                path.file_name().and_then(|n| n.to_str()).unwrap_or(""),
+            );
+            read_quantities(folder, name, true, &from, &index, |item, t, q| {
+                demand[item][bucket + t] += q
+            })?;
+            Ok(Snapshot {
+                bucket,
+                demand,
+                file: path,
+            })
+        })
+        .collect()
+}

@@ -213,6 +213,45 @@ impl Scenario {
         }
     }
 
+    /// Buckets `start..end` as a scenario of their own: every per-bucket
+    /// value cut to them, the calendar starting at `start`, messages naming
+    /// buckets as this scenario does. Stock, lead times and lot rules are
+    /// left as they are; the caller sets the stock the window starts with.
+    pub fn window(&self, start: usize, end: usize) -> Scenario {
+        let cut = |v: &Vec<f64>| v[start..end].to_vec();
+        Scenario {
+            calendar: Calendar {
+                start: self.calendar.bucket_start(start),
+                periods: end - start,
+                ..self.calendar.clone()
+            },
+            items: self
+                .items
+                .iter()
+                .map(|item| Item {
+                    setup_cost: cut(&item.setup_cost),
+                    holding_cost: cut(&item.holding_cost),
+                    unit_cost: cut(&item.unit_cost),
+                    demand: cut(&item.demand),
+                    receipts: cut(&item.receipts),
+                    firm: cut(&item.firm),
+                    ..item.clone()
+                })
+                .collect(),
+            resources: self
+                .resources
+                .iter()
+                .map(|r| Resource {
+                    capacity: cut(&r.capacity),
+                    overtime_capacity: cut(&r.overtime_capacity),
+                    ..r.clone()
+                })
+                .collect(),
+            period_offset: self.period_offset + start,
+            ..self.clone()
+        }
+    }
+
     /// The routings of one item.
     pub fn routings_of(&self, item: usize) -> impl Iterator<Item = &Routing> {
         self.routings.iter().filter(move |r| r.item == item)

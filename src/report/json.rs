@@ -285,3 +285,75 @@ pub fn compare(c: &crate::compare::Comparison) -> Value {
         "resources": resources,
     })
 }
+
+/// The JSON of `roll`: the run's terms and, per method, the realised cost
+/// and service, plan stability and every week's plan.
+pub fn roll(run: &super::table::RollRun) -> Value {
+    let calendar = &run.scenario.calendar;
+    let methods: Vec<Value> = run
+        .results
+        .iter()
+        .map(|r| {
+            let e = &r.realised;
+            let s = &r.stability;
+            let weeks: Vec<Value> = r
+                .weeks
+                .iter()
+                .map(|w| {
+                    json!({
+                        "period": w.bucket + 1,
+                        "date": calendar.label(w.bucket),
+                        "status": w.status.name(),
+                        "plan_cost": clean(w.plan_cost),
+                        "gap": w.gap.map(clean),
+                        "share_changed": w.stability.map(|s| clean(s.share_changed())),
+                        "units_moved": w.stability.map(|s| clean(s.quantity_moved)),
+                        "notes": w.notes,
+                    })
+                })
+                .collect();
+            json!({
+                "method": r.label,
+                "realised": {
+                    "total_cost": clean(e.total_cost()),
+                    "cost_without_unit": clean(e.total_cost() - e.costs.unit),
+                    "ending_stock_value": clean(e.ending_stock_value()),
+                    "costs": costs(&e.costs),
+                    "setups": e.setups,
+                    "fill_rate": clean(e.fill_rate()),
+                    "average_stock": clean(e.average_stock()),
+                    "shortages": e.shortages.len(),
+                },
+                "stability": {
+                    "mean_share_changed": clean(r.mean_share_changed()),
+                    "orders_before": s.before,
+                    "kept": s.unchanged,
+                    "resized": s.changed,
+                    "added": s.added,
+                    "removed": s.removed,
+                    "units_moved": clean(s.quantity_moved),
+                    "units_before": clean(s.quantity_before),
+                },
+                "statuses": {
+                    "optimal": r.count(crate::solve::Status::Optimal),
+                    "feasible": r.count(crate::solve::Status::Feasible),
+                    "infeasible": r.count(crate::solve::Status::Infeasible),
+                    "unknown": r.count(crate::solve::Status::Unknown),
+                },
+                "largest_gap": r.worst_gap().map(clean),
+                "weeks": weeks,
+            })
+        })
+        .collect();
+    json!({
+        "scenario": run.scenario.name,
+        "bucket": calendar.kind.name(),
+        "start": calendar.label(run.first),
+        "plans": run.weeks,
+        "horizon": run.horizon,
+        "frozen_periods": run.frozen,
+        "change_cost": clean(run.change_cost),
+        "time_limit": run.time_limit,
+        "methods": methods,
+    })
+}

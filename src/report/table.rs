@@ -753,3 +753,165 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
     }
     out
 }
+
+/// A rolling run, for the renderers.
+pub struct RollRun<'a> {
+    pub scenario: &'a Scenario,
+    /// Plans made (one per snapshot).
+    pub weeks: usize,
+    /// The first bucket of the run.
+    pub first: usize,
+    pub horizon: usize,
+    pub frozen: usize,
+    pub change_cost: f64,
+    /// Seconds each week's MILP may run.
+    pub time_limit: f64,
+    pub results: &'a [crate::roll::RollResult],
+}
+
+/// The terminal page of `roll`: realised cost and service, plan stability
+/// and the weekly plans' status, one row per method.
+pub fn roll(run: &RollRun) -> String {
+    let mut out = String::new();
+    let calendar = &run.scenario.calendar;
+    let unit = calendar.kind.name();
+    let _ = writeln!(
+        out,
+        "{}: a rolling run of {} {unit}ly plans from {}, each {} {unit}s ahead",
+        run.scenario.name,
+        run.weeks,
+        calendar.label(run.first),
+        run.horizon
+    );
+    let mut terms = vec![format!(
+        "frozen: {} {unit}{} (the previous plan's orders are kept there)",
+        run.frozen,
+        if run.frozen == 1 { "" } else { "s" }
+    )];
+    if run.change_cost > 0.0 {
+        terms.push(format!(
+            "change cost {} per order where the previous plan had none",
+            money(run.change_cost)
+        ));
+    }
+    terms.push(format!("each MILP stops after {} s", run.time_limit));
+    wrap(&terms.join("; "), "  ", &mut out);
+    let _ = writeln!(
+        out,
+        "\nRealised: the orders carried out, priced against the demand that happened"
+    );
+    let mut grid = Grid::new(&[
+        "method",
+        "cost",
+        "setup",
+        "holding",
+        "other",
+        "end stock",
+        "setups",
+        "fill rate",
+        "short",
+    ]);
+    for r in run.results {
+        let e = &r.realised;
+        let short: f64 = e.shortages.iter().map(|s| s.quantity).fold(0.0, f64::max);
+        let c = &e.costs;
+        grid.push(vec![
+            r.label.clone(),
+            money(c.setup + c.holding + c.backlog + c.overtime),
+            money(c.setup),
+            money(c.holding),
+            money(c.backlog + c.overtime),
+            money(e.ending_stock_value()),
+            e.setups.to_string(),
+            format!("{:.1} %", 100.0 * e.fill_rate()),
+            quantity(short),
+        ]);
+    }
+    grid.render(&mut out);
+    wrap(
+        &format!("cost: setup, holding and other (backlog and overtime); unit cost is left apart, as it follows the units bought, and a method that leaves demand unmet or stock at the end buys fewer or more; end stock: its value at unit cost; short: the most units short at the end of a {unit} (items without backlog)"),
+        "  ",
+        &mut out,
+    );
+    let _ = writeln!(
+        out,
+        "\nPlan stability: each plan against the one before, over the {unit}s both cover"
+    );
+    let mut grid = Grid::new(&[
+        "method",
+        "orders changed",
+        "added",
+        "removed",
+        "resized",
+        "kept",
+        "units moved",
+        "instability",
+    ]);
+    for r in run.results {
+        let s = &r.stability;
+        let instability = if s.quantity_before > 0.0 {
+            format!("{:.1} %", 100.0 * s.quantity_moved / s.quantity_before)
+        } else {
+            "-".to_string()
+        };
+        grid.push(vec![
+            r.label.clone(),
+            format!("{:.1} %", 100.0 * r.mean_share_changed()),
+            s.added.to_string(),
+            s.removed.to_string(),
+            s.changed.to_string(),
+            s.unchanged.to_string(),
+            quantity(s.quantity_moved.round()),
+            instability,
+        ]);
+    }
+    grid.render(&mut out);
+    wrap(
+        "orders changed: the mean share of orders added, removed or resized; instability: units moved over the earlier plan's units",
+        "  ",
+        &mut out,
+    );
+    let _ = writeln!(out, "\nThe {unit}ly plans");
+    let mut grid = Grid::new(&[
+        "method",
+        "optimal",
+        "feasible",
+        "infeasible",
+        "unknown",
+        "largest gap",
+    ]);
+    for r in run.results {
+        grid.push(vec![
+            r.label.clone(),
+            r.count(Status::Optimal).to_string(),
+            r.count(Status::Feasible).to_string(),
+            r.count(Status::Infeasible).to_string(),
+            r.count(Status::Unknown).to_string(),
+            r.worst_gap()
+                .map_or_else(|| "-".to_string(), |g| format!("{:.2} %", 100.0 * g)),
+        ]);
+    }
+    grid.render(&mut out);
+    wrap(
+        "for the rules, feasible means the rule's plan met every constraint; it is not a claim of least cost",
+        "  ",
+        &mut out,
+    );
+    // The first note of the first week that has one, per method: usually
+    // why a plan was infeasible.
+    for r in run.results {
+        if let Some(week) = r.weeks.iter().find(|w| !w.notes.is_empty()) {
+            wrap(
+                &format!(
+                    "Note: {} in the {unit} of {}: {}",
+                    r.label,
+                    calendar.label(week.bucket),
+                    week.notes[0]
+                ),
+                "  ",
+                &mut out,
+            );
+        }
+    }
+    out
+}

@@ -1,0 +1,352 @@
+//! A rolling-horizon run: the plan redone bucket by bucket as the forecast
+//! moves, the way plants replan every week.
+//!
+//! Each bucket b of the run, with the forecast snapshot made at its start:
+//!
+//! 1. the window b .. b + horizon of the scenario is planned, starting from
+//!    the stock and open orders the run has reached, with the forecast of
+//!    the snapshot; the previous plan's orders released inside the frozen
+//!    horizon (b .. b + frozen) are pinned as firm orders (from the second
+//!    week on: the first plan has nothing before it to keep), and a change
+//!    penalty, if asked for, is added to the setup cost of every bucket
+//!    where the previous plan had no order of the item;
+//! 2. the plan's releases in bucket b are carried out (they become open
+//!    orders), and bucket b's demand happens: the first bucket of its own
+//!    snapshot is taken as what was really ordered (common practice in
+//!    rolling-horizon studies). Demand not met is owed and met first later.
+//!
+//! The orders carried out are then priced by the one evaluation against
+//! the demand that happened (`realised`), over the run's buckets and as
+//! many more as the longest lead time, so that every order carried out is
+//! received and costed. Plan stability compares each plan with the one
+//! before over the buckets both cover.
+
+use crate::capacity::milp::MilpOptions;
+use crate::eval::{evaluate, Evaluation};
+use crate::input::Snapshot;
+use crate::model::{Plan, Scenario};
+use crate::solve::{self, Status};
+
+/// What to run.
+#[derive(Debug, Clone)]
+pub struct RollOptions {
+    /// Buckets each week's plan looks ahead.
+    pub horizon: usize,
+    /// Buckets at the start of each plan in which only the previous plan's
+    /// orders (and receipts) are released.
+    pub frozen: usize,
+    /// Added to the setup cost of an order where the previous plan had
+    /// none: a price on changing the plan.
+    pub change_cost: f64,
+    /// The method's output name (`exact` or a rule).
+    pub method: String,
+    pub milp: MilpOptions,
+}
+
+/// One order of a plan: item, release bucket and quantity (of the
+/// scenario's buckets).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Release {
+    pub item: usize,
+    pub bucket: usize,
+    pub quantity: f64,
+}
+
+/// How one plan differs from the one before, over the buckets both cover.
+#[derive(Debug, Clone, Copy, Default, PartialEq)]
+pub struct Stability {
+    /// Orders of the earlier plan in the overlap.
+    pub before: usize,
+    /// Same item and release bucket, same quantity.
+    pub unchanged: usize,
+    /// Same item and release bucket, another quantity.
+    pub changed: usize,
+    /// An order where the earlier plan had none.
+    pub added: usize,
+    /// An order of the earlier plan that is gone.
+    pub removed: usize,
+    /// The sum of |new - old| quantity over items and release buckets.
+    pub quantity_moved: f64,
+    /// The earlier plan's quantity in the overlap.
+    pub quantity_before: f64,
+}
+
+impl Stability {
+    /// Orders changed, added or removed, over all the orders either plan
+    /// has in the overlap (0 when neither has any).
+    pub fn share_changed(&self) -> f64 {
+        let moved = self.changed + self.added + self.removed;
+        let all = self.unchanged + moved;
+        if all == 0 {
+            0.0
+        } else {
+            moved as f64 / all as f64
+        }
+    }
+
+    pub fn add(&mut self, other: &Stability) {
+        self.before += other.before;
+        self.unchanged += other.unchanged;
+        self.changed += other.changed;
+        self.added += other.added;
+        self.removed += other.removed;
+        self.quantity_moved += other.quantity_moved;
+        self.quantity_before += other.quantity_before;
+    }
+}
+
+/// One week (bucket) of the run.
+#[derive(Debug, Clone)]
+pub struct Week {
+    pub bucket: usize,
+    pub status: Status,
+    /// The plan's own cost over its window (the change penalty included).
+    pub plan_cost: f64,
+    pub gap: Option<f64>,
+    /// Against the previous week's plan (none in the first week).
+    pub stability: Option<Stability>,
+    pub notes: Vec<String>,
+}
+
+/// The whole run of one method.
+#[derive(Debug, Clone)]
+pub struct RollResult {
+    /// The method, with `+change-cost` when a penalty was priced.
+    pub label: String,
+    pub weeks: Vec<Week>,
+    /// The buckets of the run and after it, the demand that happened.
+    pub realised_scenario: Scenario,
+    /// The orders carried out, by receipt bucket of `realised_scenario`.
+    pub executed: Plan,
+    pub realised: Evaluation,
+    /// Stability summed over every pair of consecutive plans.
+    pub stability: Stability,
+}
+
+impl RollResult {
+    /// Weeks whose plan has each status.
+    pub fn count(&self, status: Status) -> usize {
+        self.weeks.iter().filter(|w| w.status == status).count()
+    }
+
+    /// The largest gap of a week's plan that is not proven optimal.
+    pub fn worst_gap(&self) -> Option<f64> {
+        self.weeks
+            .iter()
+            .filter_map(|w| w.gap)
+            .fold(None, |worst, g| Some(worst.map_or(g, |w: f64| w.max(g))))
+    }
+
+    /// The mean over consecutive pairs of plans of the share of orders
+    /// changed, added or removed.
+    pub fn mean_share_changed(&self) -> f64 {
+        let shares: Vec<f64> = self
+            .weeks
+            .iter()
+            .filter_map(|w| w.stability.map(|s| s.share_changed()))
+            .collect();
+        if shares.is_empty() {
+            0.0
+        } else {
+            shares.iter().sum::<f64>() / shares.len() as f64
+        }
+    }
+}
+
+/// Hears how a long run goes (the command line shows it).
+pub trait RollProgress: Sync {
+    fn week_done(&self, _label: &str, _week: usize, _weeks: usize, _status: Status) {}
+}
+
+/// No progress to show.
+pub struct Quiet;
+
+impl RollProgress for Quiet {}
+
+/// Runs `method` over the snapshots.
+pub fn roll(
+    base: &Scenario,
+    history: &[Snapshot],
+    options: &RollOptions,
+    progress: &dyn RollProgress,
+) -> crate::error::Result<RollResult> {
+    let periods = base.periods();
+    let items = base.items.len();
+    let first = history.first().map_or(0, |s| s.bucket);
+    let last = history.last().map_or(0, |s| s.bucket);
+    // Signed stock: negative is demand owed.
+    let mut stock: Vec<f64> = base.items.iter().map(|i| i.initial_stock).collect();
+    // Open orders by item and receipt bucket (of the scenario).
+    let mut open = vec![vec![0.0; periods]; items];
+    let mut executed: Vec<Release> = Vec::new();
+    let mut actual = vec![vec![0.0; periods]; items];
+    let mut previous: Option<(usize, Vec<Release>)> = None;
+    let mut weeks = Vec::new();
+    let mut total = Stability::default();
+    for (k, snapshot) in history.iter().enumerate() {
+        let b = snapshot.bucket;
+        let end = (b + options.horizon).min(periods);
+        let mut window = base.window(b, end);
+        // The first plan has no plan before it to keep, so nothing is frozen.
+        window.frozen = if previous.is_some() {
+            options.frozen.min(end - b - 1)
+        } else {
+            0
+        };
+        for (i, item) in window.items.iter_mut().enumerate() {
+            item.demand = snapshot.demand[i][b..end].to_vec();
+            item.initial_stock = stock[i].max(0.0);
+            item.demand[0] += (-stock[i]).max(0.0);
+            for t in 0..end - b {
+                item.receipts[t] += open[i][b + t];
+            }
+        }
+        if let Some((_, orders)) = &previous {
+            // The previous plan's orders inside the freeze are pinned (the
+            // scenario's own firm orders are in the window already).
+            for order in orders {
+                let item = &mut window.items[order.item];
+                let receipt = order.bucket + item.lead_time;
+                if order.bucket < b + window.frozen && order.bucket >= b && receipt < end {
+                    let own = base.items[order.item].firm[receipt];
+                    item.firm[receipt - b] += (order.quantity - own).max(0.0);
+                }
+            }
+            if options.change_cost > 0.0 {
+                for (i, item) in window.items.iter_mut().enumerate() {
+                    for t in 0..end - b {
+                        let had = orders.iter().any(|o| o.item == i && o.bucket == b + t);
+                        if !had {
+                            item.setup_cost[t] += options.change_cost;
+                        }
+                    }
+                }
+            }
+        }
+        let planned = solve::plan_scenario(
+            &window,
+            &solve::Options {
+                method: Some(options.method.clone()),
+                milp: options.milp.clone(),
+            },
+        )?
+        .chosen;
+        let releases = releases_of(&window, &planned.plan, b);
+        let stability = previous.as_ref().map(|(prev_end, prev)| {
+            compare_plans(prev, &releases, b, (*prev_end).min(end), items)
+        });
+        if let Some(s) = &stability {
+            total.add(s);
+        }
+        // Carry out bucket b: its releases become open orders, then its
+        // demand happens.
+        for order in releases.iter().filter(|o| o.bucket == b) {
+            let receipt = order.bucket + base.items[order.item].lead_time;
+            executed.push(*order);
+            if receipt < periods {
+                open[order.item][receipt] += order.quantity;
+            }
+        }
+        for i in 0..items {
+            actual[i][b] = snapshot.demand[i][b];
+            stock[i] += base.items[i].receipts[b] + open[i][b] - actual[i][b];
+        }
+        progress.week_done(&options.method, k + 1, history.len(), planned.status);
+        weeks.push(Week {
+            bucket: b,
+            status: planned.status,
+            plan_cost: planned.total_cost(),
+            gap: planned.gap().filter(|_| planned.status == Status::Feasible),
+            stability,
+            notes: planned.notes.clone(),
+        });
+        previous = Some((end, releases));
+    }
+    // The orders carried out against the demand that happened, over the
+    // run and the longest lead time after it.
+    let longest = base.items.iter().map(|i| i.lead_time).max().unwrap_or(0);
+    let realised_end = (last + 1 + longest).min(periods);
+    let mut realised_scenario = base.window(first, realised_end);
+    realised_scenario.frozen = 0;
+    for (i, item) in realised_scenario.items.iter_mut().enumerate() {
+        item.demand = actual[i][first..realised_end].to_vec();
+        item.firm = vec![0.0; realised_end - first];
+    }
+    let mut plan = Plan::empty(items, realised_end - first);
+    for order in &executed {
+        let receipt = order.bucket + base.items[order.item].lead_time;
+        if receipt < realised_end {
+            plan.receipts[order.item][receipt - first] += order.quantity;
+        }
+    }
+    let realised = evaluate(&realised_scenario, &plan);
+    let label = if options.change_cost > 0.0 {
+        format!("{}+change-cost", options.method)
+    } else {
+        options.method.clone()
+    };
+    Ok(RollResult {
+        label,
+        weeks,
+        realised_scenario,
+        executed: plan,
+        realised,
+        stability: total,
+    })
+}
+
+/// A window's plan (and its firm orders) as releases in the scenario's
+/// buckets; orders released before the window are left out.
+fn releases_of(window: &Scenario, plan: &Plan, start: usize) -> Vec<Release> {
+    let mut releases = Vec::new();
+    for (i, item) in window.items.iter().enumerate() {
+        for t in 0..window.periods() {
+            let quantity = plan.receipts[i][t] + item.firm[t];
+            if quantity > 0.0 && t >= item.lead_time {
+                releases.push(Release {
+                    item: i,
+                    bucket: start + t - item.lead_time,
+                    quantity,
+                });
+            }
+        }
+    }
+    releases
+}
+
+/// Stability of `new` against `old` over release buckets `from..to`.
+pub fn compare_plans(
+    old: &[Release],
+    new: &[Release],
+    from: usize,
+    to: usize,
+    items: usize,
+) -> Stability {
+    let mut s = Stability::default();
+    let quantity = |orders: &[Release], i: usize, t: usize| -> f64 {
+        orders
+            .iter()
+            .filter(|o| o.item == i && o.bucket == t)
+            .map(|o| o.quantity)
+            .sum()
+    };
+    for i in 0..items {
+        for t in from..to {
+            let (q_old, q_new) = (quantity(old, i, t), quantity(new, i, t));
+            let tolerance = 1e-6 * (1.0 + q_old.abs().max(q_new.abs()));
+            if q_old > 0.0 {
+                s.before += 1;
+                s.quantity_before += q_old;
+            }
+            match (q_old > 0.0, q_new > 0.0) {
+                (true, true) if (q_old - q_new).abs() <= tolerance => s.unchanged += 1,
+                (true, true) => s.changed += 1,
+                (false, true) => s.added += 1,
+                (true, false) => s.removed += 1,
+                (false, false) => {}
+            }
+            s.quantity_moved += (q_new - q_old).abs();
+        }
+    }
+    s
+}
