@@ -16,8 +16,8 @@ pub mod eval;
 pub mod input;
 pub mod model;
 pub mod replan;
-pub mod roll;
 pub mod report;
+pub mod roll;
 pub mod single;
 pub mod solve;
 

@@ -221,7 +221,11 @@ impl Free {
             };
             let frozen = match scenario.frozen {
                 1 => format!("release in period {} is frozen", offset + 1),
-                n => format!("releases in periods {} to {} are frozen", offset + 1, offset + n),
+                n => format!(
+                    "releases in periods {} to {} are frozen",
+                    offset + 1,
+                    offset + n
+                ),
             };
             notes.push(format!(
                 "item {}: short from period {} (up to {} units), inside the frozen horizon: {frozen} (only firm orders and receipts), and with a lead time of {lead} {when}. Add or enlarge a firm order, expedite a receipt, shorten the freeze, or allow backlog",

@@ -7,9 +7,14 @@
 //!    the stock and open orders the run has reached, with the forecast of
 //!    the snapshot; the previous plan's orders released inside the frozen
 //!    horizon (b .. b + frozen) are pinned as firm orders (from the second
-//!    week on: the first plan has nothing before it to keep), and a change
-//!    penalty, if asked for, is added to the setup cost of every bucket
-//!    where the previous plan had no order of the item;
+//!    week on: the first plan has nothing before it to keep). A change
+//!    cost C, if asked for, is priced through the setup cost: an order in a
+//!    bucket where the previous plan had none of the item pays C more, one
+//!    where it had one pays C less (never below a setup cost of 0). Up to
+//!    a constant this is C times the number of order timings added or
+//!    removed, the binary part of |y - y_previous|; so moving an order
+//!    pays up to 2C, and every exact method (dynamic programs and MILP)
+//!    prices it as a setup cost;
 //! 2. the plan's releases in bucket b are carried out (they become open
 //!    orders), and bucket b's demand happens: the first bucket of its own
 //!    snapshot is taken as what was really ordered (common practice in
@@ -35,8 +40,9 @@ pub struct RollOptions {
     /// Buckets at the start of each plan in which only the previous plan's
     /// orders (and receipts) are released.
     pub frozen: usize,
-    /// Added to the setup cost of an order where the previous plan had
-    /// none: a price on changing the plan.
+    /// A price on changing the plan: added to the setup cost where the
+    /// previous plan had no order of the item, taken off it (down to 0)
+    /// where it had one.
     pub change_cost: f64,
     /// The method's output name (`exact` or a rule).
     pub method: String,
@@ -137,13 +143,16 @@ impl RollResult {
             .fold(None, |worst, g| Some(worst.map_or(g, |w: f64| w.max(g))))
     }
 
-    /// The mean over consecutive pairs of plans of the share of orders
-    /// changed, added or removed.
+    /// The mean over consecutive pairs of plans (those with an order in
+    /// the buckets both cover) of the share of orders changed, added or
+    /// removed.
     pub fn mean_share_changed(&self) -> f64 {
         let shares: Vec<f64> = self
             .weeks
             .iter()
-            .filter_map(|w| w.stability.map(|s| s.share_changed()))
+            .filter_map(|w| w.stability)
+            .filter(|s| s.unchanged + s.changed + s.added + s.removed > 0)
+            .map(|s| s.share_changed())
             .collect();
         if shares.is_empty() {
             0.0
@@ -213,12 +222,16 @@ pub fn roll(
                 }
             }
             if options.change_cost > 0.0 {
+                let c = options.change_cost;
                 for (i, item) in window.items.iter_mut().enumerate() {
                     for t in 0..end - b {
                         let had = orders.iter().any(|o| o.item == i && o.bucket == b + t);
-                        if !had {
-                            item.setup_cost[t] += options.change_cost;
-                        }
+                        let setup = &mut item.setup_cost[t];
+                        *setup = if had {
+                            (*setup - c).max(0.0)
+                        } else {
+                            *setup + c
+                        };
                     }
                 }
             }
@@ -232,9 +245,9 @@ pub fn roll(
         )?
         .chosen;
         let releases = releases_of(&window, &planned.plan, b);
-        let stability = previous.as_ref().map(|(prev_end, prev)| {
-            compare_plans(prev, &releases, b, (*prev_end).min(end), items)
-        });
+        let stability = previous
+            .as_ref()
+            .map(|(prev_end, prev)| compare_plans(prev, &releases, b, (*prev_end).min(end), items));
         if let Some(s) = &stability {
             total.add(s);
         }

@@ -825,3 +825,97 @@ fn compare_refuses_a_missing_second_side_and_unknown_overrides() {
         assert!(output.stdout.is_empty(), "{args:?}");
     }
 }
+
+/// `roll` on files: the run of tests/roll.rs `a_run_followed_by_hand`
+/// (setup 100, holding 1; forecasts 10, 10 / 30, 10 / 10) realises 220,
+/// and a history with a week missing, a file not named by a date or a
+/// date that starts no bucket is refused naming the file.
+#[test]
+fn roll_runs_a_history_folder_and_refuses_a_broken_one() {
+    let dir = scenario_dir(&[
+        ("scenario.toml", &weekly_toml(3)),
+        ("items.csv", "item,setup_cost,holding_cost\nA,100,1\n"),
+        (
+            "demand.csv",
+            "item,period,quantity\nA,1,10\nA,2,30\nA,3,10\n",
+        ),
+    ]);
+    let history = dir.path().join("history");
+    std::fs::create_dir(&history).expect("history folder");
+    for (date, rows) in [
+        ("2027-01-04", "A,2027-01-04,10\nA,2027-01-11,10\n"),
+        ("2027-01-11", "A,2027-01-11,30\nA,2027-01-18,10\n"),
+        ("2027-01-18", "A,2027-01-18,10\n"),
+    ] {
+        std::fs::write(
+            history.join(format!("{date}.csv")),
+            format!("item,date,quantity\n{rows}"),
+        )
+        .expect("a snapshot");
+    }
+    std::fs::write(history.join("README.txt"), "not a snapshot").expect("written");
+    let args = |extra: &[&str]| {
+        let mut all = vec!["roll", path(dir.path()), "--history", path(&history)];
+        all.extend_from_slice(extra);
+        all.iter().map(|s| s.to_string()).collect::<Vec<_>>()
+    };
+    let run = |extra: &[&str]| {
+        let owned = args(extra);
+        let refs: Vec<&str> = owned.iter().map(String::as_str).collect();
+        lotwright(&refs)
+    };
+    let output = run(&[
+        "--horizon",
+        "2",
+        "--method",
+        "exact",
+        "--method",
+        "lot-for-lot",
+        "--json",
+    ]);
+    assert_eq!(output.status.code(), Some(0), "stderr: {}", stderr(&output));
+    let value = json(&output);
+    assert_eq!(value["plans"], 3);
+    let exact = &value["methods"][0];
+    assert_eq!(exact["method"], "exact");
+    assert!((number(&exact["realised"], "total_cost") - 220.0).abs() < 1e-9);
+    assert_eq!(exact["statuses"]["optimal"], 3);
+    assert!((number(&exact["stability"], "mean_share_changed") - 1.0).abs() < 1e-9);
+    assert_eq!(value["methods"][1]["method"], "lot-for-lot");
+    let text = stdout(&run(&["--horizon", "2"]));
+    assert!(
+        text.contains("a rolling run of 3 weekly plans from 2027-01-04"),
+        "{text}"
+    );
+    for line in text.lines() {
+        assert!(line.chars().count() <= 100, "too wide: {line}");
+    }
+    // A broken history.
+    std::fs::rename(history.join("2027-01-11.csv"), history.join("week2.csv")).expect("renamed");
+    let output = run(&[]);
+    assert_eq!(output.status.code(), Some(2));
+    assert!(stderr(&output).contains("week2.csv"), "{}", stderr(&output));
+    assert!(
+        stderr(&output).contains("named by the date"),
+        "{}",
+        stderr(&output)
+    );
+    std::fs::remove_file(history.join("week2.csv")).expect("removed");
+    let output = run(&[]);
+    assert_eq!(output.status.code(), Some(2));
+    assert!(
+        stderr(&output).contains("the one for 2027-01-11 is missing"),
+        "{}",
+        stderr(&output)
+    );
+    std::fs::write(history.join("2027-01-12.csv"), "item,period,quantity\n").expect("written");
+    let output = run(&[]);
+    assert_eq!(output.status.code(), Some(2));
+    assert!(
+        stderr(&output).contains("2027-01-12.csv: 2027-01-12 is not the first day of a bucket"),
+        "{}",
+        stderr(&output)
+    );
+    let output = run(&["--frozen", "2", "--horizon", "2"]);
+    assert_eq!(output.status.code(), Some(2));
+}

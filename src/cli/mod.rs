@@ -239,9 +239,10 @@ struct RollArgs {
     /// the exact method and every rule.
     #[arg(long = "method", value_name = "NAME")]
     methods: Vec<String>,
-    /// Price a change of plan: added to the setup cost of an order in a
-    /// bucket where the previous plan had none of that item. The exact
-    /// method then runs with and without it.
+    /// Price a change of plan: an order in a bucket where the previous plan
+    /// had none of that item costs C more, one where it had one C less
+    /// (down to a setup cost of 0). The exact method then runs with and
+    /// without it; the realised cost does not include it.
     #[arg(long, value_name = "C")]
     change_cost: Option<f64>,
     /// Print one JSON object on stdout instead of tables.

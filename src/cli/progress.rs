@@ -178,7 +178,10 @@ impl RollLine {
 impl lotwright::roll::RollProgress for RollLine {
     fn week_done(&self, label: &str, week: usize, weeks: usize, status: Status) {
         if self.show {
-            eprint!("\r{label}: week {week} of {weeks} planned ({})   ", status.name());
+            eprint!(
+                "\r{label}: week {week} of {weeks} planned ({})   ",
+                status.name()
+            );
         }
     }
 }
