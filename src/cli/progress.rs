@@ -137,24 +137,6 @@ impl Progress for Spinner {
     }
 }
 
-#[cfg(test)]
-mod tests {
-    use super::last_progress;
-
-    #[test]
-    fn reads_the_last_progress_row_of_a_log() {
-        let log = "Src  Proc. InQueue |  Leaves   Expl. | BestBound       BestSol              Gap |   Cuts\n \
-                   J       0       0         0   0.00%   -inf            346084.573095      Large        0\n \
-                   L       0       0         0   0.00%   321032.169321   321713.469492      0.21%     1508\n\
-                   Solving report\n";
-        let (best, bound, gap) = last_progress(log).unwrap();
-        assert_eq!(
-            (best.as_str(), bound.as_str(), gap.as_str()),
-            ("321,713.47", "321,032.17", "0.21%")
-        );
-    }
-}
-
 /// One line on stderr, rewritten as each week of a rolling run is planned
 /// (only on a terminal, and not with `--json`).
 pub struct RollLine {
@@ -183,5 +165,23 @@ impl lotwright::roll::RollProgress for RollLine {
                 status.name()
             );
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::last_progress;
+
+    #[test]
+    fn reads_the_last_progress_row_of_a_log() {
+        let log = "Src  Proc. InQueue |  Leaves   Expl. | BestBound       BestSol              Gap |   Cuts\n \
+                   J       0       0         0   0.00%   -inf            346084.573095      Large        0\n \
+                   L       0       0         0   0.00%   321032.169321   321713.469492      0.21%     1508\n\
+                   Solving report\n";
+        let (best, bound, gap) = last_progress(log).unwrap();
+        assert_eq!(
+            (best.as_str(), bound.as_str(), gap.as_str()),
+            ("321,713.47", "321,032.17", "0.21%")
+        );
     }
 }
