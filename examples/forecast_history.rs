@@ -81,13 +81,14 @@ fn main() -> std::io::Result<()> {
     for k in 0..WEEKS {
         let mut text = String::from("item,date,quantity\n");
         for (i, (id, _)) in ITEMS.iter().enumerate() {
-            for t in k..(k + AHEAD).min(periods) {
+            let end = (k + AHEAD).min(periods);
+            for (t, &really) in actual[i].iter().enumerate().take(end).skip(k) {
                 let error = if t == k {
                     0.0
                 } else {
                     0.025 * (t - k) as f64 * random.normal()
                 };
-                let q = (actual[i][t] * (1.0 + error)).max(0.0).round();
+                let q = (really * (1.0 + error)).max(0.0).round();
                 let _ = writeln!(text, "{id},{},{q}", week(t));
             }
         }
