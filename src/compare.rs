@@ -246,7 +246,22 @@ pub struct Comparison {
     pub resources: Vec<Row<ResourceFigures>>,
 }
 
+impl Row<ItemFigures> {
+    /// B's cost less A's (a side without the item counts 0).
+    pub fn cost_change(&self) -> f64 {
+        let cost = |f: &Option<ItemFigures>| f.as_ref().map_or(0.0, |f| f.cost);
+        cost(&self.b) - cost(&self.a)
+    }
+}
+
 impl Comparison {
+    /// The items, the largest change in cost first.
+    pub fn items_by_change(&self) -> Vec<&Row<ItemFigures>> {
+        let mut items: Vec<&Row<ItemFigures>> = self.items.iter().collect();
+        items.sort_by(|x, y| y.cost_change().abs().total_cmp(&x.cost_change().abs()));
+        items
+    }
+
     pub fn new(a: Side, b: Side) -> Comparison {
         let items = rows(
             a.scenario.items.iter().map(|i| i.id.as_str()),

@@ -412,14 +412,7 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
         out.push_str("</section>");
     }
     out.push_str("<section><h2>Items</h2><p>Every item's cost, setups and average stock under each plan, the largest change first.</p>");
-    let mut items: Vec<&crate::compare::Row<crate::compare::ItemFigures>> =
-        c.items.iter().collect();
-    let cost = |f: &Option<crate::compare::ItemFigures>| f.as_ref().map_or(0.0, |f| f.cost);
-    items.sort_by(|x, y| {
-        (cost(&y.b) - cost(&y.a))
-            .abs()
-            .total_cmp(&(cost(&x.b) - cost(&x.a)).abs())
-    });
+    let items = c.items_by_change();
     let dash = || "-".to_string();
     let rows: Vec<Vec<(String, bool)>> = items
         .iter()
@@ -429,7 +422,7 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
                 text(row.id.clone()),
                 num(x.map_or_else(dash, |f| money(f.cost))),
                 num(y.map_or_else(dash, |f| money(f.cost))),
-                num(money(cost(&row.b) - cost(&row.a))),
+                num(money(row.cost_change())),
                 num(x.map_or_else(dash, |f| f.setups.to_string())),
                 num(y.map_or_else(dash, |f| f.setups.to_string())),
                 num(x.map_or_else(dash, |f| units((f.average_stock * 10.0).round() / 10.0))),

@@ -650,9 +650,9 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
     out.push('\n');
     grid.render(&mut out);
     // Items whose figures differ, the largest change in cost first.
-    let mut differing: Vec<_> = c
-        .items
-        .iter()
+    let differing: Vec<_> = c
+        .items_by_change()
+        .into_iter()
         .filter(|row| match (&row.a, &row.b) {
             (Some(x), Some(y)) => {
                 (x.cost - y.cost).abs() > 0.005
@@ -662,12 +662,6 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
             _ => true,
         })
         .collect();
-    let cost = |f: &Option<crate::compare::ItemFigures>| f.as_ref().map_or(0.0, |f| f.cost);
-    differing.sort_by(|x, y| {
-        let dx = (cost(&x.b) - cost(&x.a)).abs();
-        let dy = (cost(&y.b) - cost(&y.a)).abs();
-        dy.total_cmp(&dx)
-    });
     let _ = writeln!(
         out,
         "\nItems that differ: {} of {}",
@@ -697,7 +691,7 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
                 row.id.clone(),
                 x.map_or_else(dash, |f| money(f.cost)),
                 y.map_or_else(dash, |f| money(f.cost)),
-                signed_money(cost(&row.b) - cost(&row.a)),
+                signed_money(row.cost_change()),
                 x.map_or_else(dash, |f| f.setups.to_string()),
                 y.map_or_else(dash, |f| f.setups.to_string()),
                 x.map_or_else(dash, |f| quantity((f.average_stock * 10.0).round() / 10.0)),
