@@ -35,7 +35,11 @@ impl Costs {
 /// The bucket-by-bucket record of one item.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ItemRecord {
+    /// The item's own demand plus its dependent requirement.
     pub gross_requirement: Vec<f64>,
+    /// What parents' releases call for (bill of material), by bucket;
+    /// zero for an item that goes into no other.
+    pub dependent_requirement: Vec<f64>,
     pub scheduled_receipts: Vec<f64>,
     pub planned_receipts: Vec<f64>,
     /// Planned releases by release bucket (receipt bucket minus lead time).
@@ -276,20 +280,53 @@ pub fn evaluate(scenario: &Scenario, plan: &Plan) -> Evaluation {
     let periods = scenario.periods();
     let mut shortages = Vec::new();
     let mut violations = Vec::new();
-    let mut records = Vec::with_capacity(scenario.items.len());
     let mut costs = Costs::default();
-    for (i, item) in scenario.items.iter().enumerate() {
+    // With a bill of material, parents come before their components, whose
+    // gross requirement is their own demand plus what the parents' releases
+    // (planned and firm) call for in the release bucket.
+    let order: Vec<usize> = if scenario.has_bom() {
+        scenario.level_order()
+    } else {
+        (0..scenario.items.len()).collect()
+    };
+    let mut slots: Vec<Option<ItemRecord>> = vec![None; scenario.items.len()];
+    for &i in &order {
+        let item = &scenario.items[i];
         let receipts = &plan.receipts[i];
-        let record = evaluate_item(
+        let mut dependent = vec![0.0; periods];
+        for line in scenario.bom.iter().filter(|line| line.component == i) {
+            let parent = slots[line.parent]
+                .as_ref()
+                .expect("a parent is evaluated before its components");
+            let per = line.per_parent_unit();
+            let releases = parent.planned_releases.iter().zip(&parent.firm_releases);
+            for (t, (&planned, &firm)) in releases.enumerate() {
+                dependent[t] += per * (planned + firm);
+            }
+        }
+        let exploded;
+        let item = if dependent.iter().any(|&q| q > 0.0) {
+            let mut with = item.clone();
+            for (d, q) in with.demand.iter_mut().zip(&dependent) {
+                *d += q;
+            }
+            exploded = with;
+            &exploded
+        } else {
+            item
+        };
+        let mut record = evaluate_item(
             item,
             receipts,
             scenario.frozen,
             &mut shortages,
             &mut violations,
         );
+        record.dependent_requirement = dependent;
         costs.add(&record.costs);
-        records.push(record);
+        slots[i] = Some(record);
     }
+    let records: Vec<ItemRecord> = slots.into_iter().flatten().collect();
     let mut resources: Vec<ResourceLoad> = scenario
         .resources
         .iter()
@@ -509,6 +546,7 @@ fn evaluate_item(
         .max()
         .unwrap_or(0);
     ItemRecord {
+        dependent_requirement: vec![0.0; periods],
         longest_cover,
         allows_backlog: item.allows_backlog(),
         tolerance,

@@ -15,6 +15,7 @@ pub mod error;
 pub mod eval;
 pub mod input;
 pub mod model;
+pub mod multilevel;
 pub mod replan;
 pub mod report;
 pub mod roll;

@@ -170,8 +170,14 @@ pub fn plan_scenario_with(
         .method
         .as_deref()
         .map(|m| if m == "optimal" { EXACT } else { m });
+    let by_level = crate::multilevel::EXACT_BY_LEVEL;
     if let Some(method) = method {
-        if !METHOD_NAMES.contains(&method) {
+        if method == by_level && !scenario.has_bom() {
+            return Err(crate::error::Error::usage(
+                "exact-by-level plans one level of a bill of material at a time; this scenario has no bom.csv",
+            ));
+        }
+        if !METHOD_NAMES.contains(&method) && method != by_level {
             return Err(crate::error::Error::usage(format!(
                 "unknown method {method}; choose one of {}",
                 METHOD_NAMES.join(", ")
@@ -185,7 +191,13 @@ pub fn plan_scenario_with(
     }
     let wanted = |name: &str| method.is_none_or(|m| m == name);
     let mut comparison = Vec::new();
-    if wanted(EXACT) {
+    if scenario.has_bom() && (wanted(EXACT) || wanted(by_level)) {
+        let (joint, staged) = crate::multilevel::solve_exact(scenario, &options.milp, progress);
+        if wanted(EXACT) {
+            comparison.push(joint);
+        }
+        comparison.push(staged);
+    } else if wanted(EXACT) {
         comparison.push(solve_exact_with(scenario, &options.milp, progress));
     }
     for rule in Rule::ALL {
@@ -240,6 +252,9 @@ fn has_fixed_lot(scenario: &Scenario) -> bool {
 
 /// The plan of one rule for every item.
 pub fn run_rule(scenario: &Scenario, rule: Rule) -> MethodResult {
+    if scenario.has_bom() {
+        return crate::multilevel::by_level(scenario, rule.name(), &|level| run_rule(level, rule));
+    }
     if scenario.has_replanning() {
         let free = crate::replan::free_part(scenario);
         return lift(scenario, &free, run_rule(&free.scenario, rule));
@@ -295,6 +310,9 @@ pub fn solve_exact_with(
     options: &MilpOptions,
     progress: &dyn Progress,
 ) -> MethodResult {
+    if scenario.has_bom() {
+        return crate::multilevel::solve_exact(scenario, options, progress).0;
+    }
     if scenario.has_replanning() {
         let free = crate::replan::free_part(scenario);
         let result = solve_exact_with(&free.scenario, options, progress);

@@ -65,6 +65,7 @@ fn scenario(
             setup_time,
         }],
         frozen: 0,
+        bom: Vec::new(),
         period_offset: 0,
     }
 }

@@ -42,6 +42,7 @@ fn one_item_on_one_resource(
             setup_time: 0.0,
         }],
         frozen: 0,
+        bom: Vec::new(),
         period_offset: 0,
     }
 }

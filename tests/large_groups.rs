@@ -69,6 +69,7 @@ fn group(demand: Vec<Vec<u32>>, costs: Vec<(u32, u32)>, both: Vec<bool>, load: f
         resources: vec![machine("M1", 0.0), machine("M2", 4.0)],
         routings,
         frozen: 0,
+        bom: Vec::new(),
         period_offset: 0,
     }
 }

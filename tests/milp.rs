@@ -28,6 +28,7 @@ fn scenario(items: Vec<Item>, resources: Vec<Resource>, routings: Vec<Routing>) 
         resources,
         routings,
         frozen: 0,
+        bom: Vec::new(),
         period_offset: 0,
     }
 }

@@ -143,6 +143,7 @@ fn scenario(items: Vec<Item>, frozen: usize, capacity: Option<(f64, f64, f64)>) 
         resources,
         routings,
         frozen,
+        bom: Vec::new(),
         period_offset: 0,
     }
 }

@@ -52,6 +52,7 @@ fn scenario(items: Vec<Item>, capacity: Option<f64>) -> Scenario {
         resources,
         routings,
         frozen: 0,
+        bom: Vec::new(),
         period_offset: 0,
     }
 }

@@ -451,7 +451,7 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
 
 /// Sets one HiGHS option, the value read as a flag, a whole number, a
 /// decimal or else text; false when HiGHS refuses the name or the value.
-fn apply_highs_option(model: &mut highs::Model, name: &str, value: &str) -> bool {
+pub(crate) fn apply_highs_option(model: &mut highs::Model, name: &str, value: &str) -> bool {
     let set = if let Ok(flag) = value.parse::<bool>() {
         model.try_set_option(name, flag)
     } else if let Ok(whole) = value.parse::<i32>() {
@@ -595,7 +595,7 @@ fn settle(item: &Item, columns: &ItemColumns, values: &Values) -> Vec<f64> {
 
 /// Rounds away solver noise: near-whole quantities become whole, lots
 /// become exact multiples, tiny ones vanish.
-fn snap(item: &Item, quantity: f64) -> f64 {
+pub(crate) fn snap(item: &Item, quantity: f64) -> f64 {
     let tolerance = quantity_tolerance(item) * 0.1;
     if quantity <= tolerance {
         return 0.0;

@@ -278,6 +278,7 @@ mod tests {
             // A and C share P; C and D share Q; B has no routing.
             routings: vec![route(0, 0), route(2, 0), route(2, 1), route(3, 1)],
             frozen: 0,
+            bom: Vec::new(),
             period_offset: 0,
         };
         let groups = components(&scenario);

@@ -217,6 +217,7 @@ fn scenario(name: &str, capacity: f64, rows: &[[f64; 4]], demand: &[Vec<f64>]) -
         }],
         routings,
         frozen: 0,
+        bom: Vec::new(),
         period_offset: 0,
     }
 }

@@ -1,6 +1,7 @@
 //! Reading a scenario folder: scenario.toml and the CSV files of the contract
 //! in PRODUCT.md, checked once, here, so everything after takes validated types.
 
+mod bom;
 mod csvfile;
 pub mod literature;
 mod orders;
@@ -99,6 +100,8 @@ pub fn read_scenario(dir: &Path) -> Result<Scenario> {
     let mut resources = read_resources(dir, &calendar)?;
     read_capacity(dir, &calendar, &mut resources)?;
     let routings = read_routing(dir, &index, &resources)?;
+    let names: Vec<String> = items.iter().map(|item| item.id.clone()).collect();
+    let bom = bom::read_bom(dir, &index, &names)?;
     let mut scenario = Scenario {
         name: settings.name,
         currency: settings.currency,
@@ -106,6 +109,7 @@ pub fn read_scenario(dir: &Path) -> Result<Scenario> {
         items,
         resources,
         routings,
+        bom,
         frozen: settings.frozen,
         period_offset: 0,
     };

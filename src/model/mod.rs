@@ -144,6 +144,27 @@ pub struct Routing {
     pub setup_time: f64,
 }
 
+/// One line of the bill of material: `quantity_per` units of `component`
+/// go into one unit of `parent`, issued when the parent's order is
+/// released. `scrap_rate` is the share of the component lost on the way,
+/// issued on top: a release of q parents needs q x quantity_per x
+/// (1 + scrap_rate) components (a component scrap allowance, as MRP
+/// practice usually states it).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct BomLine {
+    pub parent: usize,
+    pub component: usize,
+    pub quantity_per: f64,
+    pub scrap_rate: f64,
+}
+
+impl BomLine {
+    /// Components needed per unit of the parent released, scrap included.
+    pub fn per_parent_unit(&self) -> f64 {
+        self.quantity_per * (1.0 + self.scrap_rate)
+    }
+}
+
 /// A whole, validated planning scenario.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Scenario {
@@ -153,6 +174,9 @@ pub struct Scenario {
     pub items: Vec<Item>,
     pub resources: Vec<Resource>,
     pub routings: Vec<Routing>,
+    /// The bill of material (bom.csv); empty when every item's demand
+    /// comes from outside. The reader makes sure it has no cycle.
+    pub bom: Vec<BomLine>,
     /// The frozen horizon: release buckets `0..frozen` take no new orders,
     /// only firm orders and receipts (0: nothing is frozen).
     pub frozen: usize,
@@ -184,6 +208,61 @@ impl Scenario {
         self.frozen + item.lead_time
     }
 
+    /// Whether a bill of material links the items: then a parent's
+    /// releases are its components' requirements (`crate::multilevel`).
+    pub fn has_bom(&self) -> bool {
+        !self.bom.is_empty()
+    }
+
+    /// The low-level code of every item: 0 for an item that goes into no
+    /// other, else one more than the highest code of its parents (the
+    /// lowest level at which it appears in any bill). Planning items in
+    /// this order sees every parent before its components.
+    pub fn low_level_codes(&self) -> Vec<usize> {
+        let mut codes = vec![0; self.items.len()];
+        // A chain in an acyclic bill has fewer lines than items, so this
+        // settles within as many passes as there are items.
+        for _ in 0..self.items.len() {
+            let mut changed = false;
+            for line in &self.bom {
+                let wanted = codes[line.parent] + 1;
+                if codes[line.component] < wanted {
+                    codes[line.component] = wanted;
+                    changed = true;
+                }
+            }
+            if !changed {
+                break;
+            }
+        }
+        codes
+    }
+
+    /// Items in low-level-code order (ties by their order in items.csv).
+    pub fn level_order(&self) -> Vec<usize> {
+        let codes = self.low_level_codes();
+        let mut order: Vec<usize> = (0..self.items.len()).collect();
+        order.sort_by_key(|&i| (codes[i], i));
+        order
+    }
+
+    /// The requirement that parents' releases place on each item, by item
+    /// and bucket: a parent's planned release (`releases[parent][t]`, by
+    /// release bucket) times the line's quantity per, scrap included, in
+    /// the same bucket.
+    pub fn dependent_requirements(&self, releases: &[Vec<f64>]) -> Vec<Vec<f64>> {
+        let mut need = vec![vec![0.0; self.periods()]; self.items.len()];
+        for line in &self.bom {
+            let per = line.per_parent_unit();
+            for (t, &q) in releases[line.parent].iter().enumerate() {
+                if q > 0.0 {
+                    need[line.component][t] += per * q;
+                }
+            }
+        }
+        need
+    }
+
     pub fn item_index(&self, id: &str) -> Option<usize> {
         self.items.iter().position(|item| item.id == id)
     }
@@ -208,6 +287,19 @@ impl Scenario {
             items: items.iter().map(|&i| self.items[i].clone()).collect(),
             resources: self.resources.clone(),
             routings,
+            bom: self
+                .bom
+                .iter()
+                .filter_map(|line| {
+                    let parent = items.iter().position(|&i| i == line.parent)?;
+                    let component = items.iter().position(|&i| i == line.component)?;
+                    Some(BomLine {
+                        parent,
+                        component,
+                        ..line.clone()
+                    })
+                })
+                .collect(),
             frozen: self.frozen,
             period_offset: self.period_offset,
         }

@@ -42,6 +42,7 @@ pub fn scenario(items: Vec<Item>) -> Scenario {
         resources: Vec::new(),
         routings: Vec::new(),
         frozen: 0,
+        bom: Vec::new(),
         period_offset: 0,
     }
 }

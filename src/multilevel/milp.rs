@@ -1,0 +1,344 @@
+//! The joint plan over every level of a bill of material: one
+//! mixed-integer program on HiGHS.
+//!
+//! Per item `i` and receipt bucket `j` (from its lead time after the frozen
+//! horizon on): a setup binary `y`, a receipt `x` (a whole number of lot
+//! multiples where the item has one). Per item and bucket a stock (split
+//! into stock and backlog for an item that allows backlog), with the
+//! balance
+//!
+//! ```text
+//! stock[t] = stock[t-1] + scheduled + firm + x[i][t] - demand[t]
+//!            - sum over parents p of  per(p,i) * (x[p][t + L_p] + firm release of p in t)
+//! ```
+//!
+//! so a parent's release in bucket t is its components' requirement in t,
+//! as `eval` explodes it. Stock floors, lot rules, capacity with setup time
+//! and overtime by release bucket, and costs follow `eval` term by term;
+//! the firm orders' setup and unit cost are the objective's constant.
+//!
+//! The big-M of `x <= M y` is the least of the capacity room, the maximum
+//! lot and `U[i][j]`, a bound on what an item can usefully receive from
+//! bucket j on: its own requirement from j on (all of it with backlog),
+//! its largest stock floor, one minimum lot and one lot multiple, plus
+//! `per(p,i) * U[p][j + L_p]` for every parent. Some optimal plan meets it:
+//! while any item ends the horizon with more than its floor plus a minimum
+//! lot and a multiple, its last lot can be cut by a multiple (or dropped)
+//! without breaking a floor, a lot rule or capacity, and without adding
+//! cost; its components only gain stock. docs/algorithms.md, section 12,
+//! gives the argument in full.
+
+use std::collections::HashMap;
+use std::time::Instant;
+
+use good_lp::{constraint, variable, Expression, ProblemVariables, SolverModel, Variable};
+use highs::HighsModelStatus;
+
+use crate::capacity::milp::{
+    apply_highs_option, snap, MilpOptions, MilpResult, MilpStatus, OPTIMALITY_GAP,
+};
+use crate::eval::evaluate;
+use crate::model::{Plan, Scenario};
+
+/// Columns of one item.
+struct Columns {
+    /// (receipt bucket, setup, quantity, lot count of a lot multiple).
+    orders: Vec<(usize, Variable, Variable, Option<Variable>)>,
+}
+
+/// What an item can usefully receive from each bucket on (see the module
+/// notes), by item and receipt bucket.
+pub fn useful_receipts(scenario: &Scenario) -> Vec<Vec<f64>> {
+    let periods = scenario.periods();
+    let firm = firm_releases(scenario);
+    let dependent = scenario.dependent_requirements(&firm);
+    let mut bound = vec![vec![0.0; periods + 1]; scenario.items.len()];
+    for i in scenario.level_order() {
+        let item = &scenario.items[i];
+        let floor = item.safety_stock.max(item.ending_stock);
+        let slack = item.min_lot + item.lot_multiple.unwrap_or(0.0);
+        let total: f64 = item.demand.iter().zip(&dependent[i]).map(|(d, q)| d + q).sum();
+        let mut from_j = 0.0;
+        for j in (0..periods).rev() {
+            from_j += item.demand[j] + dependent[i][j];
+            let own = if item.allows_backlog() { total } else { from_j };
+            let mut parents = 0.0;
+            for line in scenario.bom.iter().filter(|line| line.component == i) {
+                let lead = scenario.items[line.parent].lead_time;
+                if j + lead < periods {
+                    parents += line.per_parent_unit() * bound[line.parent][j + lead];
+                }
+            }
+            bound[i][j] = own + floor + slack + parents;
+        }
+    }
+    for row in &mut bound {
+        row.pop();
+    }
+    bound
+}
+
+/// Firm orders by item and release bucket.
+fn firm_releases(scenario: &Scenario) -> Vec<Vec<f64>> {
+    let periods = scenario.periods();
+    scenario
+        .items
+        .iter()
+        .map(|item| {
+            let mut out = vec![0.0; periods];
+            for t in item.lead_time..periods {
+                out[t - item.lead_time] += item.firm[t];
+            }
+            out
+        })
+        .collect()
+}
+
+/// Solves the joint program over every item of `scenario`. `start`, when
+/// given, is handed to HiGHS as its first incumbent. The result's
+/// `objective` is the returned plan's cost as `eval` computes it; proof is
+/// judged on it against HiGHS's bound.
+pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -> MilpResult {
+    let started = Instant::now();
+    let periods = scenario.periods();
+    let items = scenario.items.len();
+    let useful = useful_receipts(scenario);
+    let firm = firm_releases(scenario);
+    let firm_dependent = scenario.dependent_requirements(&firm);
+    let mut vars = ProblemVariables::new();
+    let mut objective = Expression::from(0.0);
+    let mut constraints = Vec::new();
+    let mut start_values: Vec<(Variable, f64)> = Vec::new();
+    let mut constant = 0.0;
+    // Receipt columns by item and bucket, for the balance rows.
+    let mut receipt: Vec<Vec<Option<(Variable, Variable)>>> = vec![vec![None; periods]; items];
+    let mut columns: Vec<Columns> = Vec::with_capacity(items);
+    for (i, item) in scenario.items.iter().enumerate() {
+        for t in item.lead_time..periods {
+            if item.firm[t] > 0.0 {
+                let r = t - item.lead_time;
+                constant += item.setup_cost[r] + item.unit_cost[r] * item.firm[t];
+            }
+        }
+        let mut orders = Vec::new();
+        let first = scenario.frozen + item.lead_time;
+        for j in first..periods {
+            let r = j - item.lead_time;
+            let mut room = useful[i][j].min(item.max_lot.unwrap_or(f64::INFINITY));
+            for routing in scenario.routings_of(i) {
+                let resource = &scenario.resources[routing.resource];
+                let free = resource.capacity[r] + resource.overtime_capacity[r] - routing.setup_time;
+                if free < 0.0 {
+                    room = 0.0;
+                } else if routing.per_unit > 0.0 {
+                    room = room.min(free / routing.per_unit);
+                }
+            }
+            if let Some(m) = item.lot_multiple {
+                room = (room / m + 1e-9).floor() * m;
+            }
+            if room <= 0.0 || room < item.min_lot {
+                continue;
+            }
+            let y = vars.add(variable().binary());
+            let x = vars.add(variable().min(0.0).max(room));
+            objective += item.setup_cost[r] * y + item.unit_cost[r] * x;
+            constraints.push(constraint::leq(x, room * y));
+            if item.min_lot > 0.0 {
+                constraints.push(constraint::geq(x, item.min_lot * y));
+            }
+            let count = item.lot_multiple.map(|m| {
+                let k = vars.add(variable().integer().min(0.0));
+                constraints.push(constraint::eq(x, m * k));
+                k
+            });
+            if let Some(plan) = start {
+                let q = plan.receipts[i][j];
+                start_values.push((y, if q > 0.0 { 1.0 } else { 0.0 }));
+                if let (Some(k), Some(m)) = (count, item.lot_multiple) {
+                    start_values.push((k, (q / m).round()));
+                }
+            }
+            receipt[i][j] = Some((y, x));
+            orders.push((j, y, x, count));
+        }
+        columns.push(Columns { orders });
+    }
+    // Stock balance, floors and the end of the horizon.
+    for (i, item) in scenario.items.iter().enumerate() {
+        let reach = scenario.frozen + item.lead_time;
+        let mut previous = Expression::from(item.initial_stock);
+        for t in 0..periods {
+            let last = t + 1 == periods;
+            let reachable = t >= reach;
+            let mut inflow = previous.clone()
+                + (item.receipts[t] + item.firm[t] - item.demand[t] - firm_dependent[i][t]);
+            if let Some((_, x)) = receipt[i][t] {
+                inflow += x;
+            }
+            for line in scenario.bom.iter().filter(|line| line.component == i) {
+                let lead = scenario.items[line.parent].lead_time;
+                if let Some(Some((_, x))) = receipt[line.parent].get(t + lead) {
+                    inflow -= line.per_parent_unit() * *x;
+                }
+            }
+            let stock = if item.allows_backlog() {
+                let floor = if last && reachable { item.ending_stock } else { 0.0 };
+                let on_hand = vars.add(variable().min(floor));
+                objective += item.holding_cost[t] * on_hand;
+                if last {
+                    constraints.push(constraint::eq(inflow, on_hand));
+                    Expression::from(on_hand)
+                } else {
+                    let owed = vars.add(variable().min(0.0));
+                    objective += item.backlog_cost.unwrap_or(0.0) * owed;
+                    constraints.push(constraint::eq(inflow, on_hand - owed));
+                    on_hand - owed
+                }
+            } else {
+                let floor = match (reachable, last) {
+                    (false, _) => 0.0,
+                    (true, false) => item.safety_stock,
+                    (true, true) => item.safety_stock.max(item.ending_stock),
+                };
+                let on_hand = vars.add(variable().min(floor));
+                objective += item.holding_cost[t] * on_hand;
+                constraints.push(constraint::eq(inflow, on_hand));
+                Expression::from(on_hand)
+            };
+            previous = stock;
+        }
+    }
+    // Capacity by resource and release bucket, firm orders' load included.
+    let firm_load = crate::replan::firm_load(scenario);
+    for (r, resource) in scenario.resources.iter().enumerate() {
+        for t in 0..periods {
+            let mut load = Expression::from(0.0);
+            let mut any = false;
+            for routing in scenario.routings.iter().filter(|x| x.resource == r) {
+                let item = &scenario.items[routing.item];
+                if let Some(Some((y, x))) = receipt[routing.item].get(t + item.lead_time) {
+                    load += routing.setup_time * *y + routing.per_unit * *x;
+                    any = true;
+                }
+            }
+            if !any {
+                continue;
+            }
+            if resource.overtime_capacity[t] > 0.0 {
+                let overtime = vars.add(variable().min(0.0).max(resource.overtime_capacity[t]));
+                objective += resource.overtime_cost * overtime;
+                load -= overtime;
+            }
+            constraints.push(load.leq(resource.capacity[t] - firm_load[r][t]));
+        }
+    }
+    let index: HashMap<Variable, usize> = vars
+        .iter_variables_with_def()
+        .enumerate()
+        .map(|(k, (v, _))| (v, k))
+        .collect();
+    let mut problem = vars.minimise(objective).using(good_lp::solvers::highs::highs);
+    for c in constraints {
+        problem.add_constraint(c);
+    }
+    let Ok(mut model) = problem.try_into_inner() else {
+        return MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started);
+    };
+    model.make_quiet();
+    if let Some(path) = &options.log_file {
+        model.set_option("log_to_console", false);
+        model.set_option("log_file", path.to_string_lossy().as_ref());
+        model.set_option("output_flag", true);
+    }
+    model.set_option("time_limit", options.time_limit.max(0.01));
+    model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.99));
+    model.set_option("mip_abs_gap", 1e-9);
+    model.set_option("random_seed", 1);
+    if let Some(threads) = options.threads {
+        model.set_option("threads", threads as i32);
+    }
+    if !start_values.is_empty() {
+        let mut values = vec![0.0; index.len()];
+        for (v, value) in &start_values {
+            values[index[v]] = *value;
+        }
+        // A start HiGHS cannot use is only a lost head start.
+        let _ = model.try_set_solution(Some(&values), None, None, None);
+    }
+    for (name, value) in &options.highs_options {
+        let _ = apply_highs_option(&mut model, name, value);
+    }
+    let Ok(solved) = model.try_solve() else {
+        return MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started);
+    };
+    let empty = matches!(solved.status(), HighsModelStatus::ModelEmpty);
+    let status = if empty {
+        HighsModelStatus::Optimal
+    } else {
+        solved.status()
+    };
+    let hit_time_limit = matches!(status, HighsModelStatus::ReachedTimeLimit);
+    if matches!(
+        status,
+        HighsModelStatus::Infeasible | HighsModelStatus::UnboundedOrInfeasible
+    ) {
+        return MilpResult {
+            lower_bound: f64::INFINITY,
+            ..MilpResult::without_plan(MilpStatus::Infeasible, periods, items, started)
+        };
+    }
+    // HiGHS's code for a feasible solution is 2 (see capacity::milp).
+    let has_plan = solved.int_info_value(c"primal_solution_status") == Ok(2)
+        || matches!(status, HighsModelStatus::Optimal);
+    let dual = if empty {
+        None
+    } else {
+        solved.double_info_value(c"mip_dual_bound").ok()
+    };
+    if !has_plan {
+        return MilpResult {
+            lower_bound: dual.map_or(f64::NEG_INFINITY, |b| b + constant),
+            hit_time_limit,
+            ..MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started)
+        };
+    }
+    let solution = solved.get_solution();
+    let values = solution.columns();
+    let value = |v: &Variable| values[index[v]];
+    let mut receipts = vec![vec![0.0; periods]; items];
+    for (i, item_columns) in columns.iter().enumerate() {
+        for &(j, _, x, count) in &item_columns.orders {
+            let quantity = match (count, scenario.items[i].lot_multiple) {
+                (Some(k), Some(m)) => value(&k).round() * m,
+                _ => value(&x),
+            };
+            receipts[i][j] = snap(&scenario.items[i], quantity);
+        }
+    }
+    let solver_objective = solved.objective_value() + constant;
+    let dual_bound = dual.map_or(solver_objective, |b| b + constant);
+    let plan = Plan { receipts };
+    let evaluation = evaluate(scenario, &plan);
+    let plan_cost = evaluation.total_cost();
+    let gap = if plan_cost.abs() > 1e-9 {
+        (plan_cost - dual_bound) / plan_cost.abs()
+    } else {
+        plan_cost - dual_bound
+    };
+    let proven = matches!(status, HighsModelStatus::Optimal) && gap <= OPTIMALITY_GAP;
+    MilpResult {
+        status: if proven {
+            MilpStatus::Optimal
+        } else {
+            MilpStatus::Feasible
+        },
+        receipts: plan.receipts,
+        objective: plan_cost,
+        solver_objective,
+        lower_bound: dual_bound.min(plan_cost),
+        seconds: started.elapsed().as_secs_f64(),
+        hit_time_limit,
+        shortfall: Vec::new(),
+    }
+}

@@ -1,0 +1,257 @@
+//! Plans over a bill of material: a parent's releases are its components'
+//! requirements.
+//!
+//! Two ways to plan, both evaluated by the one `eval::evaluate`, which
+//! explodes every plan itself:
+//!
+//! - **Level by level** (`by_level`), as MRP does it: items in low-level-code
+//!   order, each level planned by a single-level method (a lot rule, or the
+//!   exact method) on the requirements its parents' plans leave, with the
+//!   capacity the levels above have used taken off. Each level may be
+//!   optimal for itself; the whole is only feasible, since a level cannot
+//!   see what its lots cost further down.
+//! - **Jointly** (`milp::solve`): one mixed-integer program over every level,
+//!   on HiGHS, with its bound and gap.
+
+pub mod milp;
+
+use crate::eval::evaluate;
+use crate::model::{Plan, Scenario};
+use crate::solve::{MethodResult, Status};
+
+/// The name of the exact method applied one level at a time.
+pub const EXACT_BY_LEVEL: &str = "exact-by-level";
+
+/// Releases by item and release bucket: planned receipts moved back by the
+/// lead time (a receipt before the lead time has passed has no release in
+/// the horizon and explodes nowhere), plus firm orders.
+pub fn releases(scenario: &Scenario, plan: &Plan) -> Vec<Vec<f64>> {
+    let periods = scenario.periods();
+    scenario
+        .items
+        .iter()
+        .zip(&plan.receipts)
+        .map(|(item, receipts)| {
+            let mut out = vec![0.0; periods];
+            for t in item.lead_time..periods {
+                out[t - item.lead_time] += receipts[t] + item.firm[t];
+            }
+            out
+        })
+        .collect()
+}
+
+/// Plans `scenario` one level at a time with `plan_level`, which gets a
+/// scenario of one level's items (no bill, their demand raised by what the
+/// levels above release, capacity less what those levels use) and returns
+/// that scenario's result. The plan is then evaluated across all levels.
+pub fn by_level(
+    scenario: &Scenario,
+    method: &'static str,
+    plan_level: &dyn Fn(&Scenario) -> MethodResult,
+) -> MethodResult {
+    let periods = scenario.periods();
+    let codes = scenario.low_level_codes();
+    let deepest = codes.iter().copied().max().unwrap_or(0);
+    let mut plan = Plan::empty(scenario.items.len(), periods);
+    let mut used = vec![vec![0.0; periods]; scenario.resources.len()];
+    let mut components = Vec::new();
+    let mut notes = Vec::new();
+    let mut unknown = false;
+    for level in 0..=deepest {
+        let items: Vec<usize> = (0..scenario.items.len())
+            .filter(|&i| codes[i] == level)
+            .collect();
+        if items.is_empty() {
+            continue;
+        }
+        let dependent = scenario.dependent_requirements(&releases(scenario, &plan));
+        let mut sub = scenario.subset(&items);
+        sub.bom.clear();
+        for (k, &i) in items.iter().enumerate() {
+            for (d, q) in sub.items[k].demand.iter_mut().zip(&dependent[i]) {
+                *d += q;
+            }
+        }
+        for (resource, load) in sub.resources.iter_mut().zip(&used) {
+            for t in 0..periods {
+                let (regular, extra) = (resource.capacity[t], resource.overtime_capacity[t]);
+                resource.capacity[t] = (regular - load[t]).max(0.0);
+                resource.overtime_capacity[t] = (extra - (load[t] - regular).max(0.0)).max(0.0);
+            }
+        }
+        let result = plan_level(&sub);
+        for (k, &i) in items.iter().enumerate() {
+            plan.receipts[i] = result.plan.receipts[k].clone();
+        }
+        for (load, level_load) in used.iter_mut().zip(&result.evaluation.resources) {
+            for (t, slot) in load.iter_mut().enumerate() {
+                *slot += level_load.load(t);
+            }
+        }
+        unknown |= result.status == Status::Unknown;
+        components.extend(result.components);
+        notes.extend(result.notes);
+    }
+    let evaluation = evaluate(scenario, &plan);
+    let status = if unknown {
+        Status::Unknown
+    } else if evaluation.feasible {
+        Status::Feasible
+    } else {
+        Status::Infeasible
+    };
+    notes.insert(
+        0,
+        format!(
+            "planned level by level ({} levels): each level sees only what the levels above release, so the plan is not proven least-cost across levels",
+            deepest + 1
+        ),
+    );
+    MethodResult {
+        components,
+        method,
+        status,
+        plan,
+        evaluation,
+        lower_bound: None,
+        notes,
+    }
+}
+
+/// The exact method over a bill of material: the exact method level by
+/// level first (it is the comparison row `exact-by-level`, and HiGHS's
+/// start), then the joint program over all levels with the time left. The
+/// joint result keeps the level-by-level plan where HiGHS finds nothing
+/// better, so it is never dearer; its bound is HiGHS's. Returns (joint,
+/// level by level).
+pub fn solve_exact(
+    scenario: &Scenario,
+    options: &crate::capacity::milp::MilpOptions,
+    progress: &dyn crate::solve::Progress,
+) -> (MethodResult, MethodResult) {
+    use crate::capacity::milp::MilpStatus;
+    let started = std::time::Instant::now();
+    let levels = scenario.low_level_codes().into_iter().max().unwrap_or(0) + 1;
+    // A quarter of the time limit for the levels, shared between them.
+    let level_options = crate::capacity::milp::MilpOptions {
+        time_limit: options.time_limit * 0.25 / levels as f64,
+        log_file: None,
+        ..options.clone()
+    };
+    let staged = by_level(scenario, EXACT_BY_LEVEL, &|sub| {
+        crate::solve::solve_exact_with(sub, &level_options, &crate::solve::Silent)
+    });
+    progress.milp_started(1, 1, scenario.items.len());
+    let joint_options = crate::capacity::milp::MilpOptions {
+        time_limit: (options.time_limit - started.elapsed().as_secs_f64()).max(1.0),
+        log_file: progress.solver_log(),
+        ..options.clone()
+    };
+    let start = staged.evaluation.feasible.then_some(&staged.plan);
+    let joint = milp::solve(scenario, &joint_options, start);
+    let mut resources: Vec<String> = scenario
+        .routings
+        .iter()
+        .map(|r| scenario.resources[r.resource].id.clone())
+        .collect();
+    resources.sort();
+    resources.dedup();
+    let component = |status| crate::solve::Component {
+        items: scenario.items.iter().map(|item| item.id.clone()).collect(),
+        resources: resources.clone(),
+        solver: "milp",
+        status,
+    };
+    let staged_cost = staged.evaluation.total_cost();
+    let mut notes = vec![format!(
+        "planned jointly across the {levels} levels of the bill of material (one MILP over every item)"
+    )];
+    let result = match joint.status {
+        MilpStatus::Infeasible => {
+            notes.push(
+                "no plan meets every constraint across the levels; the plan shown is the level-by-level one, read it for the load, do not release it"
+                    .into(),
+            );
+            MethodResult {
+                components: vec![component(Status::Infeasible)],
+                method: crate::solve::EXACT,
+                status: Status::Infeasible,
+                lower_bound: None,
+                notes,
+                ..staged.clone()
+            }
+        }
+        MilpStatus::NoPlan if !staged.evaluation.feasible => MethodResult {
+            components: vec![component(Status::Unknown)],
+            method: crate::solve::EXACT,
+            status: Status::Unknown,
+            lower_bound: None,
+            notes: {
+                notes.push(format!(
+                    "the time limit of {} s ran out before HiGHS found a plan across the levels, and the level-by-level plan breaks a constraint; the plan shown is that one, do not release it",
+                    options.time_limit
+                ));
+                notes
+            },
+            ..staged.clone()
+        },
+        _ => {
+            let joint_plan = Plan {
+                receipts: joint.receipts.clone(),
+            };
+            let joint_evaluation = evaluate(scenario, &joint_plan);
+            let take_joint = joint.status != MilpStatus::NoPlan
+                && joint_evaluation.feasible
+                && (!staged.evaluation.feasible || joint_evaluation.total_cost() <= staged_cost);
+            let (plan, evaluation) = if take_joint {
+                (joint_plan, joint_evaluation)
+            } else {
+                notes.push(
+                    "HiGHS found no plan cheaper than the level-by-level one within the time limit; that plan is kept".into(),
+                );
+                (staged.plan.clone(), staged.evaluation.clone())
+            };
+            let cost = evaluation.total_cost();
+            let bound = joint.lower_bound.min(cost);
+            let proven = joint.status == MilpStatus::Optimal
+                && (cost - bound) <= crate::capacity::milp::OPTIMALITY_GAP * cost.abs().max(1e-9);
+            let status = if !evaluation.feasible {
+                Status::Infeasible
+            } else if proven {
+                Status::Optimal
+            } else {
+                Status::Feasible
+            };
+            if staged.evaluation.feasible && evaluation.feasible {
+                let saving = staged_cost - cost;
+                notes.push(format!(
+                    "the joint plan costs {} less than the exact method applied level by level ({} against {})",
+                    crate::report::money(saving),
+                    crate::report::money(cost),
+                    crate::report::money(staged_cost)
+                ));
+            }
+            MethodResult {
+                components: vec![component(status)],
+                method: crate::solve::EXACT,
+                status,
+                plan,
+                evaluation,
+                lower_bound: match status {
+                    Status::Optimal | Status::Feasible if bound.is_finite() => Some(bound),
+                    _ => None,
+                },
+                notes,
+            }
+        }
+    };
+    progress.milp_finished(
+        1,
+        1,
+        result.status,
+        result.evaluation.total_cost(),
+        result.gap(),
+    );
+    (result, staged)
+}
