@@ -1305,6 +1305,66 @@ const CASES: &[Case] = &[
         expect: &["orders.csv, line 3", "lead time", "released in period 3"],
     },
     Case {
+        name: "bom.csv unknown component",
+        base: Plain,
+        file: "bom.csv",
+        edits: &[(
+            "bom.csv",
+            Write(b"parent,component,quantity_per\nA,B,2\nA,RIVET,4\n"),
+        )],
+        expect: &[
+            "bom.csv, line 3, column 2 (component)",
+            "unknown item RIVET",
+        ],
+    },
+    Case {
+        name: "bom.csv item in itself",
+        base: Plain,
+        file: "bom.csv",
+        edits: &[("bom.csv", Write(b"parent,component,quantity_per\nA,A,1\n"))],
+        expect: &["bom.csv, line 2, column 2 (component)", "component of itself"],
+    },
+    Case {
+        name: "bom.csv component listed twice",
+        base: Plain,
+        file: "bom.csv",
+        edits: &[(
+            "bom.csv",
+            Write(b"parent,component,quantity_per\nA,B,2\nA,B,1\n"),
+        )],
+        expect: &["bom.csv, line 3", "already lists B", "line 2"],
+    },
+    Case {
+        name: "bom.csv quantity per zero",
+        base: Plain,
+        file: "bom.csv",
+        edits: &[("bom.csv", Write(b"parent,component,quantity_per\nA,B,0\n"))],
+        expect: &["bom.csv, line 2, column 3 (quantity_per)", "more than zero"],
+    },
+    Case {
+        name: "bom.csv scrap rate of one or more",
+        base: Plain,
+        file: "bom.csv",
+        edits: &[(
+            "bom.csv",
+            Write(b"parent,component,quantity_per,scrap_rate\nA,B,1,1.5\n"),
+        )],
+        expect: &[
+            "bom.csv, line 2, column 4 (scrap_rate)",
+            "not a scrap rate",
+        ],
+    },
+    Case {
+        name: "bom.csv cycle",
+        base: Plain,
+        file: "bom.csv",
+        edits: &[(
+            "bom.csv",
+            Write(b"parent,component,quantity_per\nA,B,1\nB,A,2\n"),
+        )],
+        expect: &["bom.csv, line 3", "cycle", "A -> B -> A"],
+    },
+    Case {
         name: "orders-firm.csv order released before the horizon",
         base: Plain,
         file: "orders-firm.csv",

@@ -212,7 +212,7 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
     // Capacity by resource and release bucket, firm orders' load included.
     let firm_load = crate::replan::firm_load(scenario);
     for (r, resource) in scenario.resources.iter().enumerate() {
-        for t in 0..periods {
+        for (t, &pinned) in firm_load[r].iter().enumerate() {
             let mut load = Expression::from(0.0);
             let mut any = false;
             for routing in scenario.routings.iter().filter(|x| x.resource == r) {
@@ -230,7 +230,7 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
                 objective += resource.overtime_cost * overtime;
                 load -= overtime;
             }
-            constraints.push(load.leq(resource.capacity[t] - firm_load[r][t]));
+            constraints.push(load.leq(resource.capacity[t] - pinned));
         }
     }
     let index: HashMap<Variable, usize> = vars

@@ -74,10 +74,15 @@ pub fn by_level(
             }
         }
         for (resource, load) in sub.resources.iter_mut().zip(&used) {
-            for t in 0..periods {
-                let (regular, extra) = (resource.capacity[t], resource.overtime_capacity[t]);
-                resource.capacity[t] = (regular - load[t]).max(0.0);
-                resource.overtime_capacity[t] = (extra - (load[t] - regular).max(0.0)).max(0.0);
+            let buckets = resource
+                .capacity
+                .iter_mut()
+                .zip(resource.overtime_capacity.iter_mut())
+                .zip(load);
+            for ((regular, extra), &used) in buckets {
+                let over = (used - *regular).max(0.0);
+                *regular = (*regular - used).max(0.0);
+                *extra = (*extra - over).max(0.0);
             }
         }
         let result = plan_level(&sub);
