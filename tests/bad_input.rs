@@ -1322,7 +1322,10 @@ const CASES: &[Case] = &[
         base: Plain,
         file: "bom.csv",
         edits: &[("bom.csv", Write(b"parent,component,quantity_per\nA,A,1\n"))],
-        expect: &["bom.csv, line 2, column 2 (component)", "component of itself"],
+        expect: &[
+            "bom.csv, line 2, column 2 (component)",
+            "component of itself",
+        ],
     },
     Case {
         name: "bom.csv component listed twice",
@@ -1349,10 +1352,7 @@ const CASES: &[Case] = &[
             "bom.csv",
             Write(b"parent,component,quantity_per,scrap_rate\nA,B,1,1.5\n"),
         )],
-        expect: &[
-            "bom.csv, line 2, column 4 (scrap_rate)",
-            "not a scrap rate",
-        ],
+        expect: &["bom.csv, line 2, column 4 (scrap_rate)", "not a scrap rate"],
     },
     Case {
         name: "bom.csv cycle",

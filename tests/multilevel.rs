@@ -38,7 +38,10 @@ fn a_textbook_mrp_problem_is_exploded_as_worked_by_hand() {
              D,50,1,20,2,,100\n\
              E,50,1,10,2,,50\n",
         ),
-        ("demand.csv", "item,period,quantity\nA,2,30\nA,5,30\nA,8,40\n"),
+        (
+            "demand.csv",
+            "item,period,quantity\nA,2,30\nA,5,30\nA,8,40\n",
+        ),
         ("receipts.csv", "item,period,quantity\nB,1,10\nC,1,50\n"),
         (
             "bom.csv",
@@ -166,7 +169,10 @@ fn explode_lot_for_lot(scenario: &Scenario) -> Vec<Vec<f64>> {
         for t in 0..periods {
             stock -= gross[t];
             if stock < 0.0 {
-                assert!(t >= item.lead_time, "the fixtures keep need after the lead time");
+                assert!(
+                    t >= item.lead_time,
+                    "the fixtures keep need after the lead time"
+                );
                 receipts[i][t] = -stock;
                 releases[i][t - item.lead_time] = -stock;
                 stock = 0.0;
@@ -205,7 +211,11 @@ fn brute_force(scenario: &Scenario, caps: &[u32]) -> Option<f64> {
     loop {
         let plan = Plan {
             receipts: (0..n)
-                .map(|i| (0..periods).map(|t| digits[i * periods + t] as f64).collect())
+                .map(|i| {
+                    (0..periods)
+                        .map(|t| digits[i * periods + t] as f64)
+                        .collect()
+                })
                 .collect(),
         };
         let evaluation = evaluate(scenario, &plan);

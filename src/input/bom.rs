@@ -17,7 +17,11 @@ const BOM: Schema = Schema {
 };
 
 /// Reads `dir/bom.csv`; an absent file is an empty bill.
-pub fn read_bom(dir: &Path, index: &HashMap<String, usize>, names: &[String]) -> Result<Vec<BomLine>> {
+pub fn read_bom(
+    dir: &Path,
+    index: &HashMap<String, usize>,
+    names: &[String],
+) -> Result<Vec<BomLine>> {
     let Some(file) = CsvFile::open(dir, "bom.csv", &BOM, false)? else {
         return Ok(Vec::new());
     };

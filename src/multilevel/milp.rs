@@ -25,7 +25,7 @@
 //! while any item ends the horizon with more than its floor plus a minimum
 //! lot and a multiple, its last lot can be cut by a multiple (or dropped)
 //! without breaking a floor, a lot rule or capacity, and without adding
-//! cost; its components only gain stock. docs/algorithms.md, section 12,
+//! cost; its components only gain stock. docs/algorithms.md, section 11e,
 //! gives the argument in full.
 
 use std::collections::HashMap;
@@ -57,7 +57,12 @@ pub fn useful_receipts(scenario: &Scenario) -> Vec<Vec<f64>> {
         let item = &scenario.items[i];
         let floor = item.safety_stock.max(item.ending_stock);
         let slack = item.min_lot + item.lot_multiple.unwrap_or(0.0);
-        let total: f64 = item.demand.iter().zip(&dependent[i]).map(|(d, q)| d + q).sum();
+        let total: f64 = item
+            .demand
+            .iter()
+            .zip(&dependent[i])
+            .map(|(d, q)| d + q)
+            .sum();
         let mut from_j = 0.0;
         for j in (0..periods).rev() {
             from_j += item.demand[j] + dependent[i][j];
@@ -127,7 +132,8 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
             let mut room = useful[i][j].min(item.max_lot.unwrap_or(f64::INFINITY));
             for routing in scenario.routings_of(i) {
                 let resource = &scenario.resources[routing.resource];
-                let free = resource.capacity[r] + resource.overtime_capacity[r] - routing.setup_time;
+                let free =
+                    resource.capacity[r] + resource.overtime_capacity[r] - routing.setup_time;
                 if free < 0.0 {
                     room = 0.0;
                 } else if routing.per_unit > 0.0 {
@@ -183,7 +189,11 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
                 }
             }
             let stock = if item.allows_backlog() {
-                let floor = if last && reachable { item.ending_stock } else { 0.0 };
+                let floor = if last && reachable {
+                    item.ending_stock
+                } else {
+                    0.0
+                };
                 let on_hand = vars.add(variable().min(floor));
                 objective += item.holding_cost[t] * on_hand;
                 if last {
@@ -238,7 +248,9 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
         .enumerate()
         .map(|(k, (v, _))| (v, k))
         .collect();
-    let mut problem = vars.minimise(objective).using(good_lp::solvers::highs::highs);
+    let mut problem = vars
+        .minimise(objective)
+        .using(good_lp::solvers::highs::highs);
     for c in constraints {
         problem.add_constraint(c);
     }

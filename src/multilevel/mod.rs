@@ -106,13 +106,16 @@ pub fn by_level(
     } else {
         Status::Infeasible
     };
-    notes.insert(
-        0,
-        format!(
+    // Said once, on the exact method's row; a rule is never proven anyway.
+    if method == EXACT_BY_LEVEL {
+        notes.insert(
+            0,
+            format!(
             "planned level by level ({} levels): each level sees only what the levels above release, so the plan is not proven least-cost across levels",
-            deepest + 1
-        ),
-    );
+                deepest + 1
+            ),
+        );
+    }
     MethodResult {
         components,
         method,
