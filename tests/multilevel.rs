@@ -261,9 +261,18 @@ fn the_joint_plan_is_the_cheapest_whole_plan_on_tiny_bills() {
             );
             item.lot_multiple = Some(1.0);
             item.unit_cost = vec![rng.below(2) as f64; periods];
+            // An open order now and then, whose components were issued
+            // before the horizon, and a lead time on the first parent.
+            if i < 2 && rng.below(3) == 0 {
+                item.receipts[rng.below(periods as u64) as usize] = 1.0;
+            }
+            if i == 0 && case % 4 == 1 {
+                item.lead_time = 1;
+                item.initial_stock = item.demand[0];
+            }
             // The component has stock for the first bucket's releases.
             if i == 2 {
-                item.initial_stock = rng.below(4) as f64;
+                item.initial_stock = rng.below(2) as f64;
                 item.lead_time = (case % 2) as usize;
             }
             items.push(item);
@@ -302,17 +311,25 @@ fn the_joint_plan_is_the_cheapest_whole_plan_on_tiny_bills() {
             .expect("a plan of a tiny bill");
         let joint = &outcome.comparison[0];
         assert_eq!(joint.method, solve::EXACT);
-        // Each parent needs at most its own demand (0 or 1 a bucket), the
-        // component at most both parents' (one each).
+        // A parent is worth making beyond its own demand only to use up
+        // the component's stock (when the component is dearer to hold), so
+        // at most that stock more; the component is needed at most for all
+        // the parents make (one each).
         let own = |i: usize| scenario.items[i].demand.iter().sum::<f64>() as u32;
-        let best = brute_force(&scenario, &[own(0), own(1), own(0) + own(1)]);
+        let stock = scenario.items[2].initial_stock as u32;
+        let (p, q) = (own(0) + stock, own(1) + stock);
+        let best = brute_force(&scenario, &[p, q, p + q]);
         match best {
             None => assert_eq!(joint.status, Status::Infeasible, "case {case}"),
             Some(best) => {
                 compared += 1;
                 assert_eq!(joint.status, Status::Optimal, "case {case}");
                 assert!(joint.evaluation.feasible, "case {case}");
-                common::assert_cost_eq(joint.total_cost(), best, &format!("case {case}"));
+                common::assert_cost_eq(
+                    joint.total_cost(),
+                    best,
+                    &format!("case {case}: {:?} {:?}", joint.plan, scenario.items),
+                );
                 assert!(joint.lower_bound.expect("a bound") <= best + 1e-6);
                 for other in &outcome.comparison[1..] {
                     if other.evaluation.feasible {

@@ -21,12 +21,11 @@
 //! lot and `U[i][j]`, a bound on what an item can usefully receive from
 //! bucket j on: its own requirement from j on (all of it with backlog),
 //! its largest stock floor, one minimum lot and one lot multiple, plus
-//! `per(p,i) * U[p][j + L_p]` for every parent. Some optimal plan meets it:
-//! while any item ends the horizon with more than its floor plus a minimum
-//! lot and a multiple, its last lot can be cut by a multiple (or dropped)
-//! without breaking a floor, a lot rule or capacity, and without adding
-//! cost; its components only gain stock. docs/algorithms.md, section 11e,
-//! gives the argument in full.
+//! `per(p,i) * U[p][j + L_p]` for every parent, and what could be made from
+//! the stock and open orders of everything below it (a parent made beyond
+//! its need can use up component stock that is dearer to hold).
+//! docs/algorithms.md, section 11e, gives the argument and its limits;
+//! the brute-force tests check it on tiny bills.
 
 use std::collections::HashMap;
 use std::time::Instant;
@@ -53,10 +52,31 @@ pub fn useful_receipts(scenario: &Scenario) -> Vec<Vec<f64>> {
     let firm = firm_releases(scenario);
     let dependent = scenario.dependent_requirements(&firm);
     let mut bound = vec![vec![0.0; periods + 1]; scenario.items.len()];
-    for i in scenario.level_order() {
+    // What can exist of each item without being ordered: its stock, open
+    // and firm orders, and what its components' such supply could make.
+    // An optimal plan may make a parent beyond its need to use up
+    // component stock dearer to hold than the parent, but never beyond
+    // this.
+    let order = scenario.level_order();
+    let mut supply = vec![0.0; scenario.items.len()];
+    for &c in order.iter().rev() {
+        let item = &scenario.items[c];
+        supply[c] =
+            item.initial_stock + item.receipts.iter().sum::<f64>() + item.firm.iter().sum::<f64>();
+        for line in scenario.bom.iter().filter(|line| line.parent == c) {
+            supply[c] += supply[line.component] / line.per_parent_unit();
+        }
+    }
+    for i in order {
         let item = &scenario.items[i];
         let floor = item.safety_stock.max(item.ending_stock);
-        let slack = item.min_lot + item.lot_multiple.unwrap_or(0.0);
+        let absorb: f64 = scenario
+            .bom
+            .iter()
+            .filter(|line| line.parent == i)
+            .map(|line| supply[line.component] / line.per_parent_unit())
+            .sum();
+        let slack = item.min_lot + item.lot_multiple.unwrap_or(0.0) + absorb;
         let total: f64 = item
             .demand
             .iter()
@@ -171,7 +191,9 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
         columns.push(Columns { orders });
     }
     // Stock balance, floors and the end of the horizon.
+    let mut stocks: Vec<Vec<Expression>> = Vec::with_capacity(items);
     for (i, item) in scenario.items.iter().enumerate() {
+        let mut row = Vec::with_capacity(periods);
         let reach = scenario.frozen + item.lead_time;
         let mut previous = Expression::from(item.initial_stock);
         for t in 0..periods {
@@ -216,9 +238,12 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
                 constraints.push(constraint::eq(inflow, on_hand));
                 Expression::from(on_hand)
             };
+            row.push(stock.clone());
             previous = stock;
         }
+        stocks.push(row);
     }
+    echelon_inequalities(scenario, &receipt, &stocks, &mut vars, &mut constraints);
     // Capacity by resource and release bucket, firm orders' load included.
     let firm_load = crate::replan::firm_load(scenario);
     for (r, resource) in scenario.resources.iter().enumerate() {
@@ -352,5 +377,106 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
         seconds: started.elapsed().as_secs_f64(),
         hit_time_limit,
         shortfall: Vec::new(),
+    }
+}
+
+/// The longest run of buckets an echelon inequality spans (it bounds the
+/// rows added to items x buckets x this).
+const ECHELON_SPAN: usize = 16;
+
+/// Echelon inequalities, a strengthening of the big-M rows.
+///
+/// The echelon stock of item i at the end of bucket k is its own stock plus,
+/// for every parent p, per(p, i) times p's echelon stock and p's orders
+/// released by k but not yet received:
+///
+/// ```text
+/// E[i][k] = s[i][k] + sum over p of per(p,i) (E[p][k] + receipts of p in k+1..k+L_p)
+/// ```
+///
+/// A parent's release moves per(p, i) units from i's stock into p's pipeline,
+/// so it leaves E[i] unchanged. E[i] falls only by the echelon demand
+/// De[i][t] = d[i][t] + sum of per(p,i) De[p][t]. It rises by i's own receipts
+/// (planned and firm) and by the echelon scheduled receipts
+/// Re[i][t] = r[i][t] + sum of per(p,i) Re[p][t] (parents' open orders, whose
+/// components were issued before the horizon). So, over buckets j..k,
+///
+/// ```text
+/// sum of x[i][j..k] = E[i][k] - E[i][j-1] + De[i][j..k] - (firm + Re)[i][j..k]
+/// ```
+///
+/// Where no stock in i's echelon can go negative (neither i nor any item
+/// above it allows backlog), E[i][j-1] >= 0. Then
+/// x[i][j] <= max(0, De[i][j..k] - (firm + Re)[i][j..k]) y[i][j] + E[i][k] holds
+/// for every plan. With y = 0 both sides allow x = 0; with y = 1 it is the
+/// sum above. This is the (l, S) inequality of the single item, with the
+/// single-bucket S, written on echelon stock (see Pochet and Wolsey,
+/// "Production Planning by Mixed Integer Programming", Springer 2006, on
+/// echelon reformulations of multi-level problems; cited from memory).
+fn echelon_inequalities(
+    scenario: &Scenario,
+    receipt: &[Vec<Option<(Variable, Variable)>>],
+    stocks: &[Vec<Expression>],
+    vars: &mut ProblemVariables,
+    constraints: &mut Vec<good_lp::Constraint>,
+) {
+    let periods = scenario.periods();
+    let items = scenario.items.len();
+    let mut demand = vec![vec![0.0; periods]; items];
+    let mut inflow = vec![vec![0.0; periods]; items];
+    let mut eligible = vec![false; items];
+    let mut echelon: Vec<Vec<Option<Variable>>> = vec![vec![None; periods]; items];
+    for i in scenario.level_order() {
+        let item = &scenario.items[i];
+        let parents: Vec<&crate::model::BomLine> = scenario
+            .bom
+            .iter()
+            .filter(|line| line.component == i)
+            .collect();
+        eligible[i] = !item.allows_backlog() && parents.iter().all(|line| eligible[line.parent]);
+        if !eligible[i] {
+            continue;
+        }
+        for t in 0..periods {
+            demand[i][t] = item.demand[t];
+            inflow[i][t] = item.receipts[t];
+            for line in &parents {
+                let per = line.per_parent_unit();
+                demand[i][t] += per * demand[line.parent][t];
+                inflow[i][t] += per * inflow[line.parent][t];
+            }
+        }
+        for t in 0..periods {
+            let e = vars.add(variable().min(0.0));
+            let mut definition = stocks[i][t].clone();
+            for line in &parents {
+                let p = line.parent;
+                let per = line.per_parent_unit();
+                let Some(parent_echelon) = echelon[p][t] else {
+                    continue;
+                };
+                definition += per * parent_echelon;
+                let lead = scenario.items[p].lead_time;
+                for s in t + 1..(t + lead + 1).min(periods) {
+                    definition += per * scenario.items[p].firm[s];
+                    if let Some((_, x)) = receipt[p][s] {
+                        definition += per * x;
+                    }
+                }
+            }
+            constraints.push(constraint::eq(e, definition));
+            echelon[i][t] = Some(e);
+        }
+        for j in 0..periods {
+            let Some((y, x)) = receipt[i][j] else {
+                continue;
+            };
+            let mut net = 0.0;
+            for k in j..(j + ECHELON_SPAN).min(periods) {
+                net += demand[i][k] - inflow[i][k] - item.firm[k];
+                let Some(e) = echelon[i][k] else { continue };
+                constraints.push(constraint::leq(x - e, net.max(0.0) * y));
+            }
+        }
     }
 }
