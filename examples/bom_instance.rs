@@ -7,7 +7,8 @@
 //! (a weekly mean between 20 and 120, lumpy: a bucket is empty with
 //! probability 0.3). Every item below level 0 goes into one to three items
 //! of the level above (so components are shared), with 1 to 3 per parent.
-//! Lead times are 0 or 1 week; setup costs 50 to 500, holding 0.2 to 2.
+//! Lead times are 0 or 1 week; setup costs 50 to 500; holding 0.2 to 2 for
+//! an item without components, else its components' holding plus 0.1 to 0.5.
 //! With RESOURCES > 0 every item is routed to one of them, and each
 //! resource's capacity is its mean lot-for-lot load divided by
 //! UTILISATION, with a setup time of 5 % of it. Invented data: a benchmark,
@@ -109,6 +110,21 @@ fn main() {
                 quantity_per: (1 + rng.below(3)) as f64,
                 scrap_rate: 0.0,
             });
+        }
+    }
+    // Value is added on the way up: a parent costs at least its components
+    // to hold, plus its own share (common practice in costing).
+    for i in (0..count).rev() {
+        let components: f64 = bom
+            .iter()
+            .filter(|line: &&BomLine| line.parent == i)
+            .map(|line| line.quantity_per * items[line.component].nominal_holding_cost)
+            .sum();
+        if components > 0.0 {
+            let own = (rng.range(0.1, 0.5) * 100.0).round() / 100.0;
+            let h = ((components + own) * 100.0).round() / 100.0;
+            items[i].nominal_holding_cost = h;
+            items[i].holding_cost = vec![h; weeks];
         }
     }
     let calendar = Calendar {

@@ -191,7 +191,9 @@ pub fn plan_scenario_with(
     }
     let wanted = |name: &str| method.is_none_or(|m| m == name);
     let mut comparison = Vec::new();
-    if scenario.has_bom() && (wanted(EXACT) || wanted(by_level)) {
+    if scenario.has_bom() && !wanted(EXACT) && wanted(by_level) {
+        comparison.push(crate::multilevel::exact_by_level(scenario, &options.milp));
+    } else if scenario.has_bom() && (wanted(EXACT) || wanted(by_level)) {
         let (joint, staged) = crate::multilevel::solve_exact(scenario, &options.milp, progress);
         if wanted(EXACT) {
             comparison.push(joint);

@@ -70,12 +70,38 @@ pub fn useful_receipts(scenario: &Scenario) -> Vec<Vec<f64>> {
     for i in order {
         let item = &scenario.items[i];
         let floor = item.safety_stock.max(item.ending_stock);
-        let absorb: f64 = scenario
+        // Making the parent beyond need cannot pay where holding it costs,
+        // in every bucket, at least (1 + lead time) times what holding its
+        // components costs at their dearest: the stock it would use up is
+        // held at most that many buckets longer than the parent.
+        let lines: Vec<&crate::model::BomLine> = scenario
             .bom
             .iter()
             .filter(|line| line.parent == i)
-            .map(|line| supply[line.component] / line.per_parent_unit())
+            .collect();
+        let components_holding: f64 = lines
+            .iter()
+            .map(|line| {
+                let dearest = scenario.items[line.component]
+                    .holding_cost
+                    .iter()
+                    .fold(0.0_f64, |a, &h| a.max(h));
+                line.per_parent_unit() * dearest
+            })
             .sum();
+        let cheapest = item
+            .holding_cost
+            .iter()
+            .fold(f64::INFINITY, |a, &h| a.min(h));
+        let pays = cheapest < (1.0 + item.lead_time as f64) * components_holding;
+        let absorb: f64 = if pays {
+            lines
+                .iter()
+                .map(|line| supply[line.component] / line.per_parent_unit())
+                .sum()
+        } else {
+            0.0
+        };
         let slack = item.min_lot + item.lot_multiple.unwrap_or(0.0) + absorb;
         let total: f64 = item
             .demand
@@ -382,7 +408,7 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
 
 /// The longest run of buckets an echelon inequality spans (it bounds the
 /// rows added to items x buckets x this).
-const ECHELON_SPAN: usize = 16;
+const ECHELON_SPAN: usize = 0;
 
 /// Echelon inequalities, a strengthening of the big-M rows.
 ///

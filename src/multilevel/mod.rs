@@ -127,6 +127,23 @@ pub fn by_level(
     }
 }
 
+/// The exact method applied one level at a time (no joint program), with
+/// the whole time limit shared between the levels.
+pub fn exact_by_level(
+    scenario: &Scenario,
+    options: &crate::capacity::milp::MilpOptions,
+) -> MethodResult {
+    let levels = scenario.low_level_codes().into_iter().max().unwrap_or(0) + 1;
+    let level_options = crate::capacity::milp::MilpOptions {
+        time_limit: options.time_limit / levels as f64,
+        log_file: None,
+        ..options.clone()
+    };
+    by_level(scenario, EXACT_BY_LEVEL, &|sub| {
+        crate::solve::solve_exact_with(sub, &level_options, &crate::solve::Silent)
+    })
+}
+
 /// The exact method over a bill of material: the exact method level by
 /// level first (it is the comparison row `exact-by-level`, and HiGHS's
 /// start), then the joint program over all levels with the time left. The
