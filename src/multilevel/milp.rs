@@ -483,18 +483,20 @@ fn echelon_inequalities(
                 };
                 definition += per * parent_echelon;
                 let lead = scenario.items[p].lead_time;
-                for s in t + 1..(t + lead + 1).min(periods) {
-                    definition += per * scenario.items[p].firm[s];
-                    if let Some((_, x)) = receipt[p][s] {
-                        definition += per * x;
+                let arriving = t + 1..(t + lead + 1).min(periods);
+                let firm = &scenario.items[p].firm[arriving.clone()];
+                for (&quantity, column) in firm.iter().zip(&receipt[p][arriving]) {
+                    definition += per * quantity;
+                    if let Some((_, x)) = column {
+                        definition += per * *x;
                     }
                 }
             }
             constraints.push(constraint::eq(e, definition));
             echelon[i][t] = Some(e);
         }
-        for j in 0..periods {
-            let Some((y, x)) = receipt[i][j] else {
+        for (j, column) in receipt[i].iter().enumerate() {
+            let Some((y, x)) = *column else {
                 continue;
             };
             let mut net = 0.0;
