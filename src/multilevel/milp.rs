@@ -129,20 +129,12 @@ pub fn useful_receipts(scenario: &Scenario) -> Vec<Vec<f64>> {
     bound
 }
 
-/// Firm orders by item and release bucket.
+/// Firm orders by item and release bucket: the releases of an empty plan.
 fn firm_releases(scenario: &Scenario) -> Vec<Vec<f64>> {
-    let periods = scenario.periods();
-    scenario
-        .items
-        .iter()
-        .map(|item| {
-            let mut out = vec![0.0; periods];
-            for t in item.lead_time..periods {
-                out[t - item.lead_time] += item.firm[t];
-            }
-            out
-        })
-        .collect()
+    super::releases(
+        scenario,
+        &Plan::empty(scenario.items.len(), scenario.periods()),
+    )
 }
 
 /// Solves the joint program over every item of `scenario`. `start`, when
