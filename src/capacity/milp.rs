@@ -595,8 +595,25 @@ fn settle(item: &Item, columns: &ItemColumns, values: &Values) -> Vec<f64> {
 
 /// Rounds away solver noise: near-whole quantities become whole, lots
 /// become exact multiples, tiny ones vanish.
+///
+/// HiGHS meets its constraints to its feasibility tolerance (1e-6 by
+/// default), so a lot of 2 can come back as 1.999999 and its neighbour as
+/// 1.000001, and the pair then overloads a full machine by a millionth.
+/// Where every quantity the item is given is whole, its plan is rounded to
+/// whole units within 1e-5: the rounded plan balances exactly. Where the
+/// forecast is fractional a near-whole lot may be the true one, so only the
+/// item's own tight tolerance applies.
 pub(crate) fn snap(item: &Item, quantity: f64) -> f64 {
-    let tolerance = quantity_tolerance(item) * 0.1;
+    snap_given(item, quantity, has_whole_data(item))
+}
+
+/// `snap` where the caller knows whether every requirement on the item is
+/// whole (a component's requirement also comes from its parents' lots).
+pub(crate) fn snap_given(item: &Item, quantity: f64, whole_data: bool) -> f64 {
+    let mut tolerance = quantity_tolerance(item) * 0.1;
+    if whole_data {
+        tolerance = tolerance.max(WHOLE_SNAP);
+    }
     if quantity <= tolerance {
         return 0.0;
     }
@@ -609,6 +626,23 @@ pub(crate) fn snap(item: &Item, quantity: f64) -> f64 {
     } else {
         quantity
     }
+}
+
+/// How far from a whole number a solver's quantity may be and still be read
+/// as that whole number, for items whose data are whole.
+const WHOLE_SNAP: f64 = 1e-5;
+
+/// True when the item's demand, stocks, open and firm orders are all whole.
+pub(crate) fn has_whole_data(item: &Item) -> bool {
+    let whole = |x: &f64| x.fract() == 0.0;
+    item.demand.iter().all(whole)
+        && item.receipts.iter().all(whole)
+        && item.firm.iter().all(whole)
+        && whole(&item.initial_stock)
+        && whole(&item.safety_stock)
+        && whole(&item.ending_stock)
+        && item.max_lot.as_ref().is_none_or(whole)
+        && whole(&item.min_lot)
 }
 
 /// The most an item can receive in each bucket given the capacity of its

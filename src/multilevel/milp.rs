@@ -34,7 +34,8 @@ use good_lp::{constraint, variable, Expression, ProblemVariables, SolverModel, V
 use highs::HighsModelStatus;
 
 use crate::capacity::milp::{
-    apply_highs_option, snap, MilpOptions, MilpResult, MilpStatus, OPTIMALITY_GAP,
+    apply_highs_option, has_whole_data, snap_given, MilpOptions, MilpResult, MilpStatus,
+    OPTIMALITY_GAP,
 };
 use crate::eval::evaluate;
 use crate::model::{Plan, Scenario};
@@ -362,13 +363,14 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
     let values = solution.columns();
     let value = |v: &Variable| values[index[v]];
     let mut receipts = vec![vec![0.0; periods]; items];
+    let whole = whole_requirements(scenario);
     for (i, item_columns) in columns.iter().enumerate() {
         for &(j, _, x, count) in &item_columns.orders {
             let quantity = match (count, scenario.items[i].lot_multiple) {
                 (Some(k), Some(m)) => value(&k).round() * m,
                 _ => value(&x),
             };
-            receipts[i][j] = snap(&scenario.items[i], quantity);
+            receipts[i][j] = snap_given(&scenario.items[i], quantity, whole[i]);
         }
     }
     let solver_objective = solved.objective_value() + constant;
@@ -499,4 +501,16 @@ fn echelon_inequalities(
             }
         }
     }
+}
+
+/// Whether every requirement on each item is whole: its own data, and every
+/// parent whole with a whole quantity per (scrap included).
+fn whole_requirements(scenario: &Scenario) -> Vec<bool> {
+    let mut whole: Vec<bool> = scenario.items.iter().map(has_whole_data).collect();
+    for i in scenario.level_order() {
+        for line in scenario.bom.iter().filter(|l| l.component == i) {
+            whole[i] &= whole[line.parent] && line.per_parent_unit().fract() == 0.0;
+        }
+    }
+    whole
 }
