@@ -226,6 +226,90 @@ fn a_change_cost_keeps_the_earlier_timing() {
     assert_eq!(priced.label, "exact+change-cost");
 }
 
+/// The demo folder demo-data/harbor-bakeware-four-weeks, read from its
+/// files: one pie dish, setup 100, holding 1 a unit a week, no stock, no
+/// lead time, plans 3 weeks ahead with 1 week frozen. Worked by hand
+/// (weeks numbered from 1; holding on the stock at each week's end):
+///
+/// - Week 1 forecasts 40, 30, 120. Least cost: 70 in week 1 and 120 in
+///   week 3, 100 + 30 + 100 = 230 (one lot of 190 costs 370, three 300).
+///   Carried out: 70; 40 sold, 30 left.
+/// - Week 2 forecasts 30, 120, 50. Week 2 is frozen and the last plan had
+///   no order there, so the 30 in stock covers it; then 170 in week 3
+///   (100 + 50) beats two lots (200). Against week 1's plan over weeks 2-3:
+///   the order of week 3 is resized 120 -> 170 (1 of 1 changed, 50 units
+///   moved of 120). Nothing carried out; 30 sold, 0 left.
+/// - Week 3 forecasts 110, 90, 200. The 170 of week 3 is pinned, leaving
+///   60; then 30 in week 4 and 200 in week 5 (300 + 60 = 360) beat 230 in
+///   week 4 (460). Against week 2's plan over weeks 3-4: week 3 kept, week
+///   4 added (1 of 2 changed, 30 moved of 170). Carried out: 170; 110 sold,
+///   60 left.
+/// - Week 4 forecasts 90, 0, 80. The 30 of week 4 is pinned: 60 + 30 - 90
+///   = 0 left; then 80 in week 6. Against week 3's plan over weeks 4-5:
+///   week 4 kept, week 5's 200 removed (1 of 2 changed, 200 moved of 230).
+///   Carried out: 30; 90 sold.
+///
+/// Stability: kept 2, resized 1, added 1, removed 1; the mean share of
+/// orders changed is (1 + 1/2 + 1/2) / 3 = 2/3; units moved 50 + 30 + 200
+/// = 280 of 120 + 170 + 230 = 520 (53.8 %). Realised: lots of 70, 170 and
+/// 30 against sales of 40, 30, 110, 90: 3 setups (300) and stock of 30, 0,
+/// 60, 0 (90), so 390, every unit on time, and every weekly plan optimal.
+#[test]
+fn the_four_week_demo_history_as_worked_by_hand() {
+    let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("demo-data")
+        .join("harbor-bakeware-four-weeks");
+    let base = lotwright::input::read_scenario(&dir).expect("the demo reads");
+    let history =
+        lotwright::input::read_history(&dir.join("history"), &base).expect("its history reads");
+    assert_eq!(history.len(), 4);
+    assert_eq!(base.frozen, 1);
+    let run = roll(&base, &history, &options(3, base.frozen), &Quiet).expect("a run");
+    assert_eq!(run.executed.receipts[0], vec![70.0, 0.0, 170.0, 30.0]);
+    let pairs: Vec<_> = run.weeks[1..]
+        .iter()
+        .map(|w| {
+            let s = w.stability.expect("against the week before");
+            (
+                s.unchanged,
+                s.changed,
+                s.added,
+                s.removed,
+                s.quantity_moved,
+                s.quantity_before,
+            )
+        })
+        .collect();
+    assert_eq!(
+        pairs,
+        vec![
+            (0, 1, 0, 0, 50.0, 120.0),
+            (1, 0, 1, 0, 30.0, 170.0),
+            (1, 0, 0, 1, 200.0, 230.0),
+        ]
+    );
+    assert!(
+        close(run.mean_share_changed(), 2.0 / 3.0),
+        "{}",
+        run.mean_share_changed()
+    );
+    assert!(close(run.stability.quantity_moved, 280.0));
+    assert!(close(run.stability.quantity_before, 520.0));
+    assert!(
+        close(run.realised.costs.setup, 300.0),
+        "{:?}",
+        run.realised.costs
+    );
+    assert!(
+        close(run.realised.costs.holding, 90.0),
+        "{:?}",
+        run.realised.costs
+    );
+    assert!(close(run.realised.total_cost(), 390.0));
+    assert!(close(run.realised.fill_rate(), 1.0));
+    assert_eq!(run.count(Status::Optimal), 4);
+}
+
 proptest! {
     #![proptest_config(ProptestConfig { cases: 40, ..ProptestConfig::default() })]
 
