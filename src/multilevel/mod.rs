@@ -14,6 +14,7 @@
 //!   on HiGHS, with its bound and gap.
 
 pub mod milp;
+pub mod peg;
 
 use crate::eval::evaluate;
 use crate::model::{Plan, Scenario};

@@ -4,6 +4,7 @@
 
 use super::clean;
 use crate::model::Scenario;
+use crate::multilevel::peg::{parent_orders_text, pegs};
 use crate::solve::Outcome;
 
 fn write_rows(rows: Vec<Vec<String>>) -> Vec<u8> {
@@ -113,6 +114,10 @@ pub fn comparison(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
 /// backlog or shortage); `shortage` is the evaluation's shortage (items
 /// without backlog), `backlog` the units owed by an item that allows it;
 /// `firm_receipts` and `firm_releases` are the firm orders (orders-firm.csv).
+/// With a bill of material three columns follow: `level` (the low-level
+/// code, 0 for finished items), `dependent_requirement` (what parents'
+/// releases call for, part of the gross requirement) and `parent_orders`
+/// (the parent orders behind it, as `parent_orders_text` writes them).
 pub fn records(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
     let header = [
         "item",
@@ -129,11 +134,18 @@ pub fn records(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
         "firm_releases",
     ];
     let evaluation = &outcome.chosen.evaluation;
-    let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
-    for (item, record) in scenario.items.iter().zip(&evaluation.items) {
+    let bom = scenario.has_bom();
+    let mut header: Vec<String> = header.iter().map(|s| s.to_string()).collect();
+    if bom {
+        header.extend(["level", "dependent_requirement", "parent_orders"].map(String::from));
+    }
+    let levels = scenario.low_level_codes();
+    let pegged = pegs(scenario, evaluation);
+    let mut rows = vec![header];
+    for (i, (item, record)) in scenario.items.iter().zip(&evaluation.items).enumerate() {
         for t in 0..scenario.periods() {
             let (shortage, backlog) = (record.shortage(t), record.backlog(t));
-            rows.push(vec![
+            let mut row = vec![
                 item.id.clone(),
                 (t + 1).to_string(),
                 scenario.calendar.label(t),
@@ -146,7 +158,13 @@ pub fn records(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
                 number(backlog),
                 number(record.firm_receipts[t]),
                 number(record.firm_releases[t]),
-            ]);
+            ];
+            if bom {
+                row.push(levels[i].to_string());
+                row.push(number(record.dependent_requirement[t]));
+                row.push(parent_orders_text(scenario, &pegged, i, t));
+            }
+            rows.push(row);
         }
     }
     write_rows(rows)

@@ -8,6 +8,7 @@ use super::clean;
 use crate::check::CheckReport;
 use crate::eval::{Costs, Evaluation};
 use crate::model::{Plan, Scenario};
+use crate::multilevel::peg::{pegs, shortage_causes, Peg};
 use crate::solve::{cautions, MethodResult, Outcome};
 
 fn costs(costs: &Costs) -> Value {
@@ -64,8 +65,58 @@ pub fn orders(scenario: &Scenario, plan: &Plan) -> Vec<Order> {
     orders
 }
 
-fn faults(evaluation: &Evaluation) -> Value {
+/// Which parent orders make up each component requirement (empty without
+/// a bill of material).
+fn pegging(scenario: &Scenario, pegs: &[Peg]) -> Value {
+    let calendar = &scenario.calendar;
+    let list: Vec<Value> = pegs
+        .iter()
+        .map(|p| {
+            json!({
+                "component": scenario.items[p.component].id,
+                "period": p.bucket + 1,
+                "date": calendar.label(p.bucket),
+                "quantity": clean(p.quantity),
+                "parent": scenario.items[p.parent].id,
+                "parent_period": p.parent_receipt + 1,
+                "parent_quantity": clean(p.parent_quantity),
+                "parent_kind": if p.firm { "firm" } else { "planned" },
+            })
+        })
+        .collect();
+    Value::Array(list)
+}
+
+/// Shortages, overloads and violations; with a bill of material each
+/// shortage also says whose requirement it leaves short: `own_demand` units
+/// of the item's own demand and `parent_orders` (parent, its order's
+/// period, units short).
+fn faults(scenario: &Scenario, evaluation: &Evaluation, pegs: &[Peg]) -> Value {
     let mut shortages = serde_json::to_value(&evaluation.shortages).unwrap_or(Value::Null);
+    if scenario.has_bom() {
+        let causes = shortage_causes(scenario, evaluation, pegs);
+        if let Value::Array(list) = &mut shortages {
+            for (entry, cause) in list.iter_mut().zip(causes) {
+                if let Value::Object(map) = entry {
+                    map.insert("own_demand".into(), json!(clean(cause.own_demand)));
+                    let parents: Vec<Value> = cause
+                        .parent_orders
+                        .iter()
+                        .map(|&(k, short)| {
+                            let p = &pegs[k];
+                            json!({
+                                "parent": scenario.items[p.parent].id,
+                                "parent_period": p.parent_receipt + 1,
+                                "parent_quantity": clean(p.parent_quantity),
+                                "short": clean(short),
+                            })
+                        })
+                        .collect();
+                    map.insert("parent_orders".into(), Value::Array(parents));
+                }
+            }
+        }
+    }
     let mut overloads = serde_json::to_value(&evaluation.overloads).unwrap_or(Value::Null);
     let mut violations = serde_json::to_value(&evaluation.violations).unwrap_or(Value::Null);
     for value in [&mut shortages, &mut overloads, &mut violations] {
@@ -120,6 +171,7 @@ fn row(scenario: &Scenario, result: &MethodResult, reference: Option<f64>) -> Va
 pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Value {
     let chosen = &outcome.chosen;
     let evaluation = &chosen.evaluation;
+    let pegged = pegs(scenario, evaluation);
     let reference = outcome
         .comparison
         .iter()
@@ -158,12 +210,15 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Value {
         "costs": costs(&evaluation.costs),
         "setups": evaluation.setups,
         "orders": orders(scenario, &chosen.plan),
+        "pegging": pegging(scenario, &pegged),
         "items": items,
         "comparison": outcome.comparison.iter().map(|r| row(scenario, r, reference)).collect::<Vec<_>>(),
         "notes": chosen.notes,
         "cautions": cautions(scenario, chosen),
     });
-    if let (Value::Object(map), Value::Object(extra)) = (&mut value, faults(evaluation)) {
+    if let (Value::Object(map), Value::Object(extra)) =
+        (&mut value, faults(scenario, evaluation, &pegged))
+    {
         map.extend(extra);
     }
     value
@@ -172,6 +227,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Value {
 /// The JSON of `check`.
 pub fn check(scenario: &Scenario, report: &CheckReport) -> Value {
     let evaluation = &report.evaluation;
+    let pegged = pegs(scenario, evaluation);
     let mut value = json!({
         "scenario": scenario.name,
         "feasible": evaluation.feasible,
@@ -182,8 +238,11 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> Value {
         "best_status": report.best.as_ref().map(|b| b.status.name()),
         "saving": report.saving().map(clean),
         "findings": report.findings,
+        "pegging": pegging(scenario, &pegged),
     });
-    if let (Value::Object(map), Value::Object(extra)) = (&mut value, faults(evaluation)) {
+    if let (Value::Object(map), Value::Object(extra)) =
+        (&mut value, faults(scenario, evaluation, &pegged))
+    {
         map.extend(extra);
     }
     value

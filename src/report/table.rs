@@ -7,6 +7,7 @@ use super::{money, quantity};
 use crate::check::CheckReport;
 use crate::eval::{Evaluation, ViolationKind};
 use crate::model::Scenario;
+use crate::multilevel::peg::{describe, pegs, shortage_causes};
 use crate::solve::{cautions, MethodResult, Outcome, Status};
 
 /// How much of the bucket records to show.
@@ -169,7 +170,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
         wrap(&format!("Note: {note}"), "  ", &mut out);
     }
     comparison(scenario, outcome, &mut out);
-    faults(&chosen.evaluation, &mut out);
+    faults(scenario, &chosen.evaluation, &mut out);
     orders(scenario, chosen, detail, &mut out);
     let few = scenario.items.len() <= FEW_ITEMS;
     let mut shown = 0;
@@ -288,16 +289,33 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
     }
 }
 
-fn faults(evaluation: &Evaluation, out: &mut String) {
+fn faults(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
     if !evaluation.shortages.is_empty() {
         let _ = writeln!(out, "\nShortages");
-        let mut grid = Grid::new(&["item", "period", "short"]);
-        for s in &evaluation.shortages {
-            grid.push(vec![
-                s.item.clone(),
-                s.period.to_string(),
-                quantity(s.quantity),
-            ]);
+        let bom = scenario.has_bom();
+        let mut grid = if bom {
+            Grid::new(&["item", "period", "short", "leaves short"])
+        } else {
+            Grid::new(&["item", "period", "short"])
+        };
+        let pegged = pegs(scenario, evaluation);
+        let causes = shortage_causes(scenario, evaluation, &pegged);
+        for (s, cause) in evaluation.shortages.iter().zip(&causes) {
+            let mut row = vec![s.item.clone(), s.period.to_string(), quantity(s.quantity)];
+            if bom {
+                let mut whose: Vec<String> = cause
+                    .parent_orders
+                    .iter()
+                    .map(|&(k, short)| {
+                        format!("{} ({})", describe(scenario, &pegged[k]), quantity(short))
+                    })
+                    .collect();
+                if cause.own_demand > 0.0 {
+                    whose.push(format!("own demand ({})", quantity(cause.own_demand)));
+                }
+                row.push(whose.join("; "));
+            }
+            grid.push(row);
         }
         grid.render(out);
     }
@@ -516,19 +534,30 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> String {
     );
     match &report.best {
         Some(best) => {
+            let saving = report.saving().unwrap_or(0.0);
+            let against = if saving >= -0.005 {
+                format!("the proposal costs {} more", money(saving))
+            } else if evaluation.feasible {
+                format!("the proposal costs {} less", money(-saving))
+            } else {
+                // Cheaper only because it leaves requirements unmet.
+                format!(
+                    "the proposal costs {} less only because it does not meet every requirement",
+                    money(-saving)
+                )
+            };
             let _ = writeln!(
                 out,
-                "Best plan: {} ({}); the proposal costs {} more.",
+                "Best plan: {} ({}); {against}.",
                 money(best.total_cost()),
                 status_words(best),
-                money(report.saving().unwrap_or(0.0))
             );
         }
         None => {
             let _ = writeln!(out, "The scenario itself has no feasible plan.");
         }
     }
-    faults(evaluation, &mut out);
+    faults(scenario, evaluation, &mut out);
     if !report.findings.is_empty() {
         let _ = writeln!(out, "\nWhere the proposal loses money");
         let mut grid = Grid::new(&["item", "extra cost", "why"]);

@@ -5,6 +5,7 @@ use rust_xlsxwriter::{Worksheet, XlsxError};
 
 use super::{in_currency, table, table_sheet, write_cell, yes_no, Cell, Formats};
 use crate::model::Scenario;
+use crate::multilevel::peg::{parent_orders_text, pegs};
 use crate::report::figures;
 use crate::solve::{cautions, Outcome};
 
@@ -214,7 +215,7 @@ pub(super) fn stock_records(
     f: &Formats,
 ) -> std::result::Result<Worksheet, XlsxError> {
     let evaluation = &outcome.chosen.evaluation;
-    let columns = [
+    let mut columns = vec![
         ("Item", 18.0),
         ("Period", 8.0),
         ("Bucket starts", 12.0),
@@ -228,11 +229,21 @@ pub(super) fn stock_records(
         ("Shortage (units)", 11.0),
         ("Backlog (units)", 11.0),
     ];
+    let bom = scenario.has_bom();
+    if bom {
+        columns.extend([
+            ("Level", 7.0),
+            ("Dependent requirement (units)", 13.0),
+            ("Parent orders (parent, period: units)", 40.0),
+        ]);
+    }
+    let levels = scenario.low_level_codes();
+    let pegged = pegs(scenario, evaluation);
     let mut rows = Vec::new();
-    for (item, record) in scenario.items.iter().zip(&evaluation.items) {
+    for (i, (item, record)) in scenario.items.iter().zip(&evaluation.items).enumerate() {
         for t in 0..scenario.periods() {
             let (shortage, backlog) = (record.shortage(t), record.backlog(t));
-            rows.push(vec![
+            let mut row = vec![
                 Cell::Text(item.id.clone()),
                 Cell::Count(t + 1),
                 Cell::Date(scenario.calendar.bucket_start(t)),
@@ -245,7 +256,13 @@ pub(super) fn stock_records(
                 Cell::Quantity(item.safety_stock),
                 Cell::Quantity(shortage),
                 Cell::Quantity(backlog),
-            ]);
+            ];
+            if bom {
+                row.push(Cell::Count(levels[i]));
+                row.push(Cell::Quantity(record.dependent_requirement[t]));
+                row.push(Cell::Text(parent_orders_text(scenario, &pegged, i, t)));
+            }
+            rows.push(row);
         }
     }
     table_sheet("Stock records", &columns, &rows, 3, f)
