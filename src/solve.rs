@@ -70,6 +70,12 @@ impl MethodResult {
         self.method == EXACT
     }
 
+    /// A lot rule's result: neither the exact method nor the exact method
+    /// applied level by level.
+    pub fn is_rule(&self) -> bool {
+        !self.is_exact() && self.method != crate::multilevel::EXACT_BY_LEVEL
+    }
+
     /// The solvers that produced the plan, joined by `+` (`dp`, `dp+milp`).
     pub fn solver(&self) -> String {
         let mut names: Vec<&str> = self.components.iter().map(|c| c.solver).collect();

@@ -245,3 +245,41 @@ fn the_comparison_page_lays_out_with_its_charts() {
     let names: Vec<&str> = boxes.iter().map(|b| b.0.as_str()).collect();
     assert_eq!(names, ["compare-stock", "compare-load-PRESS"], "{names:?}");
 }
+
+/// A plan over a bill of material (three levels, a bought-in part shared by
+/// two sub-assemblies): the page gains the chart of stock by level and its
+/// table, and lays out like the others. Invented data.
+#[test]
+fn a_bill_of_material_adds_the_stock_by_level_chart() {
+    let dir = tempfile::tempdir().unwrap();
+    let files = [
+        ("scenario.toml", "name = \"three levels\"\nstart = \"2027-01-04\"\nbucket = \"week\"\nperiods = 6\n"),
+        (
+            "items.csv",
+            "item,setup_cost,holding_cost,unit_cost,lead_time\n\
+             KIT,60,0.5,20,0\nFRAME,40,0.3,8,1\nPANEL,40,0.3,6,0\nSHEET,30,0.1,2,1\n",
+        ),
+        ("demand.csv", "item,period,quantity\nKIT,3,40\nKIT,4,30\nKIT,6,50\nPANEL,5,10\n"),
+        (
+            "bom.csv",
+            "parent,component,quantity_per\nKIT,FRAME,1\nKIT,PANEL,2\nFRAME,SHEET,1\nPANEL,SHEET,0.5\n",
+        ),
+        ("receipts.csv", "item,period,quantity\nFRAME,1,40\nSHEET,1,60\n"),
+    ];
+    for (name, body) in files {
+        std::fs::write(dir.path().join(name), body).unwrap();
+    }
+    let scenario = lotwright::input::read_scenario(dir.path()).expect("the bill reads");
+    assert_eq!(scenario.low_level_codes(), vec![0, 1, 1, 2]);
+    let outcome = lotwright::solve::plan_scenario(&scenario, &Default::default()).unwrap();
+    let page = lotwright::report::html::plan(&scenario, &outcome);
+    assert!(page.contains("Stock by level of the bill of material"));
+    assert!(
+        page.contains("<td>FRAME, PANEL</td>"),
+        "the level table names its items"
+    );
+    let boxes = lay_out(&page, "levels", "report-levels-screenshot.png");
+    let names: Vec<&str> = boxes.iter().map(|b| b.0.as_str()).collect();
+    assert!(names.contains(&"stock-by-level"), "{names:?}");
+    assert_eq!(boxes.len(), 2 + scenario.items.len(), "{names:?}");
+}

@@ -177,6 +177,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> String {
     }
     let _ = write!(out, "<section><h2>Cost by method</h2><p>Setup, holding, backlog and overtime cost of each method's plan. Unit cost (what is made or bought) is far larger than the rest, so it is listed beside the bars with the total instead of drawn.</p><figure>{}</figure></section>", charts::cost_by_method(outcome, scenario.currency.as_deref().unwrap_or("")));
     sections::stock_section(scenario, outcome, &mut out);
+    sections::levels_section(scenario, outcome, &mut out);
     sections::load_section(scenario, chosen, &mut out);
     out.push_str("<section><h2>Comparison of methods</h2>");
     sections::comparison_table(scenario, outcome, &mut out);

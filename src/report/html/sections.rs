@@ -141,19 +141,26 @@ pub(super) fn stock_section(scenario: &Scenario, outcome: &Outcome, out: &mut St
         reference.map(|r| format!(" and under the {} rule (dashed orange)", escape(r.method))).unwrap_or_default());
     for (i, item) in scenario.items.iter().enumerate() {
         let mine = &chosen.evaluation.items[i];
+        let setups = |n: usize| {
+            if n == 1 {
+                "1 setup".to_string()
+            } else {
+                format!("{n} setups")
+            }
+        };
         let mut caption = format!(
-            "{}: {} setups, average stock {}",
+            "{}: {}, average stock {}",
             item.id,
-            mine.setups,
+            setups(mine.setups),
             units((mine.average_stock * 10.0).round() / 10.0)
         );
         if let Some(r) = reference {
             let theirs = &r.evaluation.items[i];
             let _ = write!(
                 caption,
-                "; {}: {} setups, average stock {}",
+                "; {}: {}, average stock {}",
                 r.method,
-                theirs.setups,
+                setups(theirs.setups),
                 units((theirs.average_stock * 10.0).round() / 10.0)
             );
             if r.method == "fixed-lot" && item.fixed_lot.is_none() {
@@ -168,6 +175,87 @@ pub(super) fn stock_section(scenario: &Scenario, outcome: &Outcome, out: &mut St
         );
     }
     out.push_str("</div></section>");
+}
+
+/// With a bill of material: stock by level of the bill over time under the
+/// chosen plan, and the average by level against the plan made level by
+/// level, where the comparison has one.
+pub(super) fn levels_section(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
+    if !scenario.has_bom() {
+        return;
+    }
+    let chosen = &outcome.chosen;
+    let by_level = outcome
+        .comparison
+        .iter()
+        .find(|r| r.method == crate::multilevel::EXACT_BY_LEVEL && r.method != chosen.method);
+    let (stock, valued) = figures::stock_by_level(scenario, chosen);
+    let codes = scenario.low_level_codes();
+    let members = |level: usize| -> Vec<&str> {
+        scenario
+            .items
+            .iter()
+            .zip(&codes)
+            .filter(|(_, &c)| c == level)
+            .map(|(item, _)| item.id.as_str())
+            .collect()
+    };
+    let what = if valued {
+        "Stock value"
+    } else {
+        "Stock in units"
+    };
+    let series: Vec<charts::Series> = stock
+        .iter()
+        .enumerate()
+        .map(|(level, values)| charts::Series {
+            label: match members(level).len() {
+                1 => format!("level {level} (1 item)"),
+                n => format!("level {level} ({n} items)"),
+            },
+            values,
+        })
+        .collect();
+    let _ = write!(out, "<section><h2>Stock by level of the bill of material</h2><p>{what} at the end of each {} under the {} plan, summed over each level's items{}. Level 0 holds the items that go into no other; each level below holds their parts, down to what is bought in.</p><figure>{}</figure>",
+        scenario.calendar.kind.name(),
+        escape(chosen.method),
+        if valued { " at unit cost" } else { " (no item has a unit cost, so units of every kind are added)" },
+        charts::steps(scenario, "stock-by-level", &format!("{what} by level of the bill of material"), &series));
+    let average = |values: &[f64]| values.iter().sum::<f64>() / values.len().max(1) as f64;
+    let theirs = by_level.map(|r| figures::stock_by_level(scenario, r).0);
+    let mut header = vec![
+        "level".to_string(),
+        "items".to_string(),
+        format!("average, {} plan", chosen.method),
+    ];
+    if let Some(r) = by_level {
+        header.push(format!("average, {} plan", r.method));
+    }
+    let header: Vec<&str> = header.iter().map(String::as_str).collect();
+    let format = |v: f64| {
+        if valued {
+            money(v)
+        } else {
+            units((v * 10.0).round() / 10.0)
+        }
+    };
+    let rows: Vec<Vec<(String, bool)>> = stock
+        .iter()
+        .enumerate()
+        .map(|(level, values)| {
+            let mut row = vec![
+                num(level.to_string()),
+                text(members(level).join(", ")),
+                num(format(average(values))),
+            ];
+            if let Some(theirs) = &theirs {
+                row.push(num(format(average(&theirs[level]))));
+            }
+            row
+        })
+        .collect();
+    table(out, "levels", &header, &rows);
+    out.push_str("</section>");
 }
 
 pub(super) fn load_section(scenario: &Scenario, chosen: &MethodResult, out: &mut String) {
