@@ -182,10 +182,22 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
             if let Some(m) = item.lot_multiple {
                 room = (room / m + 1e-9).floor() * m;
             }
-            if room <= 0.0 || room < item.min_lot {
+            // The useful-receipt bound holds for some optimal plan, not for
+            // every plan: a start that receives more must stay in the model,
+            // or HiGHS drops it.
+            if let Some(plan) = start {
+                room = room.max(plan.receipts[i][j]);
+            }
+            let fixed = options.fixed.as_ref().and_then(|f| f[i][j]);
+            if room <= 0.0 || room < item.min_lot || fixed == Some(false) {
                 continue;
             }
-            let y = vars.add(variable().binary());
+            let y = match (fixed == Some(true), options.relax) {
+                (true, false) => vars.add(variable().binary().min(1.0)),
+                (true, true) => vars.add(variable().min(1.0).max(1.0)),
+                (false, false) => vars.add(variable().binary()),
+                (false, true) => vars.add(variable().min(0.0).max(1.0)),
+            };
             let x = vars.add(variable().min(0.0).max(room));
             objective += item.setup_cost[r] * y + item.unit_cost[r] * x;
             constraints.push(constraint::leq(x, room * y));
@@ -193,7 +205,11 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
                 constraints.push(constraint::geq(x, item.min_lot * y));
             }
             let count = item.lot_multiple.map(|m| {
-                let k = vars.add(variable().integer().min(0.0));
+                let k = if options.relax {
+                    vars.add(variable().min(0.0))
+                } else {
+                    vars.add(variable().integer().min(0.0))
+                };
                 constraints.push(constraint::eq(x, m * k));
                 k
             });
@@ -355,6 +371,20 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
     if !has_plan {
         return MilpResult {
             lower_bound: dual.map_or(f64::NEG_INFINITY, |b| b + constant),
+            hit_time_limit,
+            ..MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started)
+        };
+    }
+    if options.relax {
+        // The relaxation's optimum is a lower bound on every plan; its
+        // fractional setups are no plan.
+        let optimal = matches!(status, HighsModelStatus::Optimal);
+        return MilpResult {
+            lower_bound: if optimal {
+                solved.objective_value() + constant
+            } else {
+                f64::NEG_INFINITY
+            },
             hit_time_limit,
             ..MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started)
         };

@@ -128,6 +128,35 @@ pub fn reduced_buckets(load: &ResourceLoad) -> Vec<bool> {
         .collect()
 }
 
+/// Stock by level of the bill of material: for each low-level code, the
+/// end-of-bucket stock of that level's items, valued at unit cost, and
+/// whether values are money. When no item has a unit cost, the stock is
+/// counted in units instead (and the flag is false).
+pub fn stock_by_level(
+    scenario: &crate::model::Scenario,
+    result: &MethodResult,
+) -> (Vec<Vec<f64>>, bool) {
+    let codes = scenario.low_level_codes();
+    let levels = codes.iter().copied().max().map_or(0, |d| d + 1);
+    let valued = scenario
+        .items
+        .iter()
+        .any(|i| i.unit_cost.iter().any(|&c| c > 0.0));
+    let mut stock = vec![vec![0.0; scenario.periods()]; levels];
+    for (i, (item, record)) in scenario
+        .items
+        .iter()
+        .zip(&result.evaluation.items)
+        .enumerate()
+    {
+        for (t, &on_hand) in record.on_hand.iter().enumerate() {
+            let price = if valued { item.unit_cost[t] } else { 1.0 };
+            stock[codes[i]][t] += on_hand.max(0.0) * price;
+        }
+    }
+    (stock, valued)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -159,33 +188,4 @@ mod tests {
         assert_eq!(utilisation(&l, 0), Some(0.5));
         assert_eq!(utilisation(&l, 1), None);
     }
-}
-
-/// Stock by level of the bill of material: for each low-level code, the
-/// end-of-bucket stock of that level's items, valued at unit cost, and
-/// whether values are money. When no item has a unit cost, the stock is
-/// counted in units instead (and the flag is false).
-pub fn stock_by_level(
-    scenario: &crate::model::Scenario,
-    result: &MethodResult,
-) -> (Vec<Vec<f64>>, bool) {
-    let codes = scenario.low_level_codes();
-    let levels = codes.iter().copied().max().map_or(0, |d| d + 1);
-    let valued = scenario
-        .items
-        .iter()
-        .any(|i| i.unit_cost.iter().any(|&c| c > 0.0));
-    let mut stock = vec![vec![0.0; scenario.periods()]; levels];
-    for (i, (item, record)) in scenario
-        .items
-        .iter()
-        .zip(&result.evaluation.items)
-        .enumerate()
-    {
-        for (t, &on_hand) in record.on_hand.iter().enumerate() {
-            let price = if valued { item.unit_cost[t] } else { 1.0 };
-            stock[codes[i]][t] += on_hand.max(0.0) * price;
-        }
-    }
-    (stock, valued)
 }
