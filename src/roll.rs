@@ -16,7 +16,8 @@
 //!    pays up to 2C, and every exact method (dynamic programs and MILP)
 //!    prices it as a setup cost;
 //! 2. the plan's releases in bucket b are carried out (they become open
-//!    orders), and bucket b's demand happens: the first bucket of its own
+//!    orders, and with a bill of material their components are taken out
+//!    of stock), and bucket b's demand happens: the first bucket of its own
 //!    snapshot is taken as what was really ordered (common practice in
 //!    rolling-horizon studies). Demand not met is owed and met first later.
 //!
@@ -260,9 +261,17 @@ pub fn roll(
                 open[order.item][receipt] += order.quantity;
             }
         }
+        // A parent's order started in bucket b takes its components out of
+        // stock then (bill of material).
+        let mut issued = vec![0.0; items];
+        for order in releases.iter().filter(|o| o.bucket == b) {
+            for line in base.bom.iter().filter(|l| l.parent == order.item) {
+                issued[line.component] += line.per_parent_unit() * order.quantity;
+            }
+        }
         for i in 0..items {
             actual[i][b] = snapshot.demand[i][b];
-            stock[i] += base.items[i].receipts[b] + open[i][b] - actual[i][b];
+            stock[i] += base.items[i].receipts[b] + open[i][b] - actual[i][b] - issued[i];
         }
         progress.week_done(&options.method, k + 1, history.len(), planned.status);
         weeks.push(Week {
