@@ -291,22 +291,13 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     let Ok(mut model) = problem.try_into_inner() else {
         return failed(periods, items.len(), started);
     };
-    model.make_quiet();
-    if let Some(path) = &options.log_file {
-        model.set_option("log_to_console", false);
-        model.set_option("log_file", path.to_string_lossy().as_ref());
-        model.set_option("output_flag", true);
-    }
-    model.set_option("time_limit", options.time_limit.max(0.01));
-    model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.99));
     // On a cost grid a gap below one step proves optimality (PRODUCT.md).
     let grid = if options.extra_capacity || options.elastic.is_some() {
         None
     } else {
         cost_grid(scenario, items)
     };
-    model.set_option("mip_abs_gap", grid.map_or(1e-9, |g| g * 0.99));
-    model.set_option("random_seed", 1);
+    configure(&mut model, options, grid.map_or(1e-9, |g| g * 0.99));
     if options.start.is_some() {
         // Only the integer columns are given; HiGHS finds the rest by
         // solving the LP with them fixed.
@@ -317,13 +308,6 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
         // A start HiGHS cannot use is only a lost head start.
         // (HiGHS logs "MIP start solution is feasible" when it takes it.)
         let _ = model.try_set_solution(Some(&start), None, None, None);
-    }
-    if let Some(threads) = options.threads {
-        model.set_option("threads", threads as i32);
-    }
-    for (name, value) in &options.highs_options {
-        // Checked beforehand with `highs_option_accepted`.
-        let _ = apply_highs_option(&mut model, name, value);
     }
 
     let Ok(solved) = model.try_solve() else {
@@ -451,6 +435,31 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
 
 /// Sets one HiGHS option, the value read as a flag, a whole number, a
 /// decimal or else text; false when HiGHS refuses the name or the value.
+/// The HiGHS options every program here runs with: quiet, or logging to
+/// the file the command line reads; the time limit, the relative gap (or
+/// the proof tolerance) and `abs_gap`; a fixed seed, so that a run can be
+/// repeated; the threads asked for; then the user's own options
+/// (`MilpOptions::highs_options`, checked beforehand with
+/// `highs_option_accepted`).
+pub(crate) fn configure(model: &mut highs::Model, options: &MilpOptions, abs_gap: f64) {
+    model.make_quiet();
+    if let Some(path) = &options.log_file {
+        model.set_option("log_to_console", false);
+        model.set_option("log_file", path.to_string_lossy().as_ref());
+        model.set_option("output_flag", true);
+    }
+    model.set_option("time_limit", options.time_limit.max(0.01));
+    model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.99));
+    model.set_option("mip_abs_gap", abs_gap);
+    model.set_option("random_seed", 1);
+    if let Some(threads) = options.threads {
+        model.set_option("threads", threads as i32);
+    }
+    for (name, value) in &options.highs_options {
+        let _ = apply_highs_option(model, name, value);
+    }
+}
+
 pub(crate) fn apply_highs_option(model: &mut highs::Model, name: &str, value: &str) -> bool {
     let set = if let Ok(flag) = value.parse::<bool>() {
         model.try_set_option(name, flag)

@@ -34,8 +34,7 @@ use good_lp::{constraint, variable, Expression, ProblemVariables, SolverModel, V
 use highs::HighsModelStatus;
 
 use crate::capacity::milp::{
-    apply_highs_option, has_whole_data, snap_given, MilpOptions, MilpResult, MilpStatus,
-    OPTIMALITY_GAP,
+    configure, has_whole_data, snap_given, MilpOptions, MilpResult, MilpStatus, OPTIMALITY_GAP,
 };
 use crate::eval::evaluate;
 use crate::model::{Plan, Scenario};
@@ -317,19 +316,7 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
     let Ok(mut model) = problem.try_into_inner() else {
         return MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started);
     };
-    model.make_quiet();
-    if let Some(path) = &options.log_file {
-        model.set_option("log_to_console", false);
-        model.set_option("log_file", path.to_string_lossy().as_ref());
-        model.set_option("output_flag", true);
-    }
-    model.set_option("time_limit", options.time_limit.max(0.01));
-    model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.99));
-    model.set_option("mip_abs_gap", 1e-9);
-    model.set_option("random_seed", 1);
-    if let Some(threads) = options.threads {
-        model.set_option("threads", threads as i32);
-    }
+    configure(&mut model, options, 1e-9);
     if !start_values.is_empty() {
         let mut values = vec![0.0; index.len()];
         for (v, value) in &start_values {
@@ -337,9 +324,6 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
         }
         // A start HiGHS cannot use is only a lost head start.
         let _ = model.try_set_solution(Some(&values), None, None, None);
-    }
-    for (name, value) in &options.highs_options {
-        let _ = apply_highs_option(&mut model, name, value);
     }
     let Ok(solved) = model.try_solve() else {
         return MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started);
