@@ -1,12 +1,14 @@
 //! Writes a seeded multi-level scenario folder for the benchmarks of
 //! docs/benchmarks.md ("Bills of material").
 //!
-//! `cargo run --release --example bom_instance -- DIR ITEMS LEVELS WEEKS RESOURCES UTILISATION [SEED]`
+//! `cargo run --release --example bom_instance -- DIR ITEMS LEVELS WEEKS RESOURCES UTILISATION [SEED [COMMONALITY]]`
 //!
 //! The items are spread evenly over the levels. Level 0 items have demand
 //! (a weekly mean between 20 and 120, lumpy: a bucket is empty with
-//! probability 0.3). Every item below level 0 goes into one to three items
-//! of the level above (so components are shared), with 1 to 3 per parent.
+//! probability 0.3). Every item below level 0 goes into one to COMMONALITY
+//! items of the level above (default 3, so components are shared; 1 makes
+//! a pure assembly structure, every part in one parent), with 1 to 3 per
+//! parent.
 //! Lead times are 0 or 1 week; setup costs 50 to 500; holding 0.2 to 2 for
 //! an item without components, else its components' holding plus 0.1 to 0.5.
 //! With RESOURCES > 0 every item is routed to one of them, and each
@@ -43,7 +45,9 @@ impl Random {
 fn main() {
     let args: Vec<String> = std::env::args().skip(1).collect();
     if args.len() < 6 {
-        eprintln!("usage: bom_instance DIR ITEMS LEVELS WEEKS RESOURCES UTILISATION [SEED]");
+        eprintln!(
+            "usage: bom_instance DIR ITEMS LEVELS WEEKS RESOURCES UTILISATION [SEED [COMMONALITY]]"
+        );
         std::process::exit(2);
     }
     let dir = PathBuf::from(&args[0]);
@@ -59,6 +63,7 @@ fn main() {
     let resources = number(4) as usize;
     let utilisation = number(5);
     let seed = if args.len() > 6 { number(6) as u64 } else { 1 };
+    let commonality = if args.len() > 7 { number(7) as usize } else { 3 }.max(1);
     let mut rng = Random(seed.wrapping_mul(0x9E37_79B9_7F4A_7C15) + 17);
 
     let level_of = |i: usize| i * levels / count;
@@ -95,7 +100,7 @@ fn main() {
             continue;
         }
         let above: Vec<usize> = (0..count).filter(|&p| level_of(p) == level - 1).collect();
-        let parents = 1 + rng.below(3);
+        let parents = 1 + rng.below(commonality);
         let mut chosen: Vec<usize> = Vec::new();
         for _ in 0..parents {
             let p = above[rng.below(above.len())];
