@@ -63,7 +63,12 @@ fn main() {
     let resources = number(4) as usize;
     let utilisation = number(5);
     let seed = if args.len() > 6 { number(6) as u64 } else { 1 };
-    let commonality = if args.len() > 7 { number(7) as usize } else { 3 }.max(1);
+    let commonality = if args.len() > 7 {
+        number(7) as usize
+    } else {
+        3
+    }
+    .max(1);
     let mut rng = Random(seed.wrapping_mul(0x9E37_79B9_7F4A_7C15) + 17);
 
     let level_of = |i: usize| i * levels / count;

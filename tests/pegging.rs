@@ -150,3 +150,46 @@ fn without_a_bill_nothing_is_pegged() {
     let v: Value = serde_json::from_str(&json_text).unwrap();
     assert_eq!(v["pegging"], json!([]));
 }
+
+/// plan.xlsx's Stock records sheet, read back with calamine: the level,
+/// the dependent requirement (a number) and the parent orders, as in
+/// records.csv.
+#[test]
+fn the_spreadsheet_carries_the_level_and_the_parent_orders() {
+    use calamine::{open_workbook_from_rs, Data, DataType, Reader, Xlsx};
+    let dir = shared_component();
+    let out = dir.path().join("out");
+    let (code, _, stderr) = lotwright(&[
+        "plan",
+        dir.path().to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 0, "{stderr}");
+    let bytes = std::fs::read(out.join("plan.xlsx")).unwrap();
+    let mut workbook: Xlsx<_> = open_workbook_from_rs(std::io::Cursor::new(bytes)).unwrap();
+    let range = workbook.worksheet_range("Stock records").unwrap();
+    let header: Vec<String> = range
+        .rows()
+        .next()
+        .unwrap()
+        .iter()
+        .map(|c| c.get_string().unwrap_or("").to_string())
+        .collect();
+    let col = |name: &str| {
+        header
+            .iter()
+            .position(|h| h == name)
+            .unwrap_or_else(|| panic!("{name} in {header:?}"))
+    };
+    let c2 = range
+        .rows()
+        .find(|r| r[0].get_string() == Some("C") && r[1] == Data::Float(2.0))
+        .expect("C's week 2");
+    assert_eq!(c2[col("Level")], Data::Float(1.0));
+    assert_eq!(c2[col("Dependent requirement (units)")], Data::Float(25.0));
+    assert_eq!(
+        c2[col("Parent orders (parent, period: units)")].get_string(),
+        Some("P period 3: 20; Q period 2: 5")
+    );
+}
