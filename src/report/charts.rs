@@ -148,6 +148,52 @@ fn bucket_labels(scenario: &Scenario, band: f64, min_gap: f64) -> usize {
     every
 }
 
+/// Horizontal grid lines at `values`, labelled left of the plot, which
+/// spans `plot` (left and right edge); with `mark_zero` the zero line is
+/// drawn darker.
+fn value_axis(
+    svg: &mut Svg,
+    values: &[f64],
+    step: f64,
+    y: &Scale,
+    plot: (f64, f64),
+    mark_zero: bool,
+) {
+    let (left, right) = plot;
+    for v in values {
+        let style = if mark_zero && *v == 0.0 {
+            "stroke=\"#999\" stroke-width=\"1\""
+        } else {
+            GRID
+        };
+        svg.line(left, y.map(*v), right, y.map(*v), style);
+        svg.text(
+            left - 6.0,
+            y.map(*v) + 4.0,
+            &grouped(*v, step_decimals(step)),
+            "end",
+            AXIS_TEXT,
+        );
+    }
+}
+
+/// The buckets' dates under the plot's `baseline`, every k-th so that
+/// labels stay `min_gap` apart.
+fn bucket_axis(svg: &mut Svg, scenario: &Scenario, x: &Scale, baseline: f64, min_gap: f64) {
+    let periods = scenario.periods();
+    let band = x.map(1.0) - x.map(0.0);
+    let every = bucket_labels(scenario, band, min_gap);
+    for t in (0..periods).step_by(every) {
+        svg.text(
+            x.map(t as f64 + 0.5),
+            baseline + 16.0,
+            &axis_date(scenario, t),
+            "middle",
+            AXIS_TEXT,
+        );
+    }
+}
+
 /// End-of-bucket stock of one item under the optimal plan and the current
 /// rule, with its safety stock.
 pub fn stock(
@@ -182,31 +228,8 @@ pub fn stock(
         (height - bottom, top),
     );
     let x = Scale::new((0.0, periods as f64), (left, width - right));
-    for v in &values {
-        let style = if *v == 0.0 {
-            "stroke=\"#999\" stroke-width=\"1\""
-        } else {
-            GRID
-        };
-        svg.line(left, y.map(*v), width - right, y.map(*v), style);
-        let label = grouped(*v, step_decimals(step));
-        svg.text(left - 6.0, y.map(*v) + 4.0, &label, "end", AXIS_TEXT);
-    }
-    let every = bucket_labels(
-        scenario,
-        (width - left - right) / periods.max(1) as f64,
-        46.0,
-    );
-    for t in (0..periods).step_by(every) {
-        let cx = x.map(t as f64 + 0.5);
-        svg.text(
-            cx,
-            height - bottom + 16.0,
-            &axis_date(scenario, t),
-            "middle",
-            AXIS_TEXT,
-        );
-    }
+    value_axis(&mut svg, &values, step, &y, (left, width - right), true);
+    bucket_axis(&mut svg, scenario, &x, height - bottom, 46.0);
     let mut lx = 8.0;
     if safety > 0.0 {
         let style = "stroke=\"#666\" stroke-width=\"1.5\" stroke-dasharray=\"2 3\"";
@@ -308,26 +331,8 @@ pub fn load(scenario: &Scenario, resource: usize, result: &MethodResult) -> Stri
             );
         }
     }
-    for v in &values {
-        svg.line(left, y.map(*v), width - right, y.map(*v), GRID);
-        svg.text(
-            left - 6.0,
-            y.map(*v) + 4.0,
-            &grouped(*v, step_decimals(step)),
-            "end",
-            AXIS_TEXT,
-        );
-    }
-    let every = bucket_labels(scenario, band, 48.0);
-    for t in (0..periods).step_by(every) {
-        svg.text(
-            x.map(t as f64 + 0.5),
-            height - bottom + 16.0,
-            &axis_date(scenario, t),
-            "middle",
-            AXIS_TEXT,
-        );
-    }
+    value_axis(&mut svg, &values, step, &y, (left, width - right), false);
+    bucket_axis(&mut svg, scenario, &x, height - bottom, 48.0);
     let bar = band * 0.62;
     let any_overtime = load.overtime_capacity.iter().any(|&o| o > 0.0);
     for t in 0..periods {
@@ -461,35 +466,8 @@ pub fn steps(scenario: &Scenario, name: &str, title: &str, series: &[Series]) ->
         (height - bottom, top),
     );
     let x = Scale::new((0.0, periods as f64), (left, width - right));
-    for v in &values {
-        let style = if *v == 0.0 {
-            "stroke=\"#999\" stroke-width=\"1\""
-        } else {
-            GRID
-        };
-        svg.line(left, y.map(*v), width - right, y.map(*v), style);
-        svg.text(
-            left - 6.0,
-            y.map(*v) + 4.0,
-            &grouped(*v, step_decimals(step)),
-            "end",
-            AXIS_TEXT,
-        );
-    }
-    let every = bucket_labels(
-        scenario,
-        (width - left - right) / periods.max(1) as f64,
-        60.0,
-    );
-    for t in (0..periods).step_by(every) {
-        svg.text(
-            x.map(t as f64 + 0.5),
-            height - bottom + 16.0,
-            &axis_date(scenario, t),
-            "middle",
-            AXIS_TEXT,
-        );
-    }
+    value_axis(&mut svg, &values, step, &y, (left, width - right), true);
+    bucket_axis(&mut svg, scenario, &x, height - bottom, 60.0);
     let mut lx = 8.0;
     for (k, s) in series.iter().enumerate() {
         let style = match k {
