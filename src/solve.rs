@@ -330,6 +330,16 @@ pub fn solve_exact_with(
     let groups = capacity::components(scenario);
     let milp_total = groups.iter().filter(|g| g.items.len() > 1).count();
     let started = std::time::Instant::now();
+    let shared = Shared {
+        left: groups
+            .iter()
+            .filter(|g| g.resources.is_empty())
+            .flat_map(|g| &g.items)
+            .filter(|&&i| scenario.items[i].has_lot_constraints())
+            .count()
+            .into(),
+        workers: rayon::current_num_threads().max(1),
+    };
     // Groups without resources are independent dynamic programs: solved in
     // parallel, then taken in group order like the rest, so the result is
     // the same as one thread's.
@@ -339,7 +349,7 @@ pub fn solve_exact_with(
             group
                 .resources
                 .is_empty()
-                .then(|| solve_group(scenario, group, options, started, &Silent, 0, 0))
+                .then(|| solve_group(scenario, group, options, started, &shared, &Silent, 0, 0))
         })
         .collect();
     let mut plan = Plan::empty(scenario.items.len(), periods);
@@ -353,7 +363,7 @@ pub fn solve_exact_with(
                 milp_index += 1;
             }
             solve_group(
-                scenario, group, options, started, progress, milp_index, milp_total,
+                scenario, group, options, started, &shared, progress, milp_index, milp_total,
             )
         });
         for (i, receipts) in outcome.receipts {
@@ -401,6 +411,25 @@ pub fn solve_exact_with(
     }
 }
 
+/// The time the items planned one by one share: each item's MILP gets an
+/// equal part of what is left, for the workers, of the items still to
+/// come, so that many items cannot run the solve past its time limit.
+struct Shared {
+    /// Items without resources that may need the MILP, not yet started.
+    left: std::sync::atomic::AtomicUsize,
+    workers: usize,
+}
+
+impl Shared {
+    /// The seconds the next item's MILP may take, and that item taken off.
+    fn take(&self, options: &MilpOptions, started: std::time::Instant) -> f64 {
+        use std::sync::atomic::Ordering;
+        let left = self.left.fetch_sub(1, Ordering::SeqCst).max(1);
+        let remaining = options.time_limit - started.elapsed().as_secs_f64();
+        (remaining * self.workers as f64 / left as f64).min(remaining)
+    }
+}
+
 /// What solving one group gave.
 struct GroupOutcome {
     component: Component,
@@ -425,11 +454,13 @@ impl Receipts {
 
 /// Solves one group: the dynamic programs of its items, then the capacitated
 /// program, the MILP or a heuristic as its size and resources call for.
+#[allow(clippy::too_many_arguments)]
 fn solve_group(
     scenario: &Scenario,
     group: &capacity::Group,
     options: &MilpOptions,
     started: std::time::Instant,
+    shared: &Shared,
     progress: &dyn Progress,
     milp_index: usize,
     milp_total: usize,
@@ -509,10 +540,12 @@ fn solve_group(
                 }
                 // Other lot constraints: the program over stock levels for
                 // items in lot multiples, else the MILP, handles them exactly.
+                let share = shared.take(options, started);
                 solve_constrained(
                     scenario,
                     options,
                     started,
+                    Some((share, exact.cost)),
                     i,
                     &mut plan,
                     &mut component,
@@ -529,6 +562,7 @@ fn solve_group(
             scenario,
             options,
             started,
+            None,
             i,
             &mut plan,
             &mut component,
@@ -592,11 +626,18 @@ fn solve_group(
 /// One item with lot constraints or resources of its own: the dynamic
 /// program over stock levels when the item has a lot multiple and the state space
 /// is within its bound, else the MILP (saying why).
+///
+/// `share`, for an item without resources, is (the seconds its MILP may
+/// take, the least cost of the item without its lot rules). When that
+/// time is too short for HiGHS to find a plan, the item is ordered
+/// lot-for-lot within its lot rules, a feasible plan, bounded below by that
+/// least cost (a relaxation: the same item with fewer rules).
 #[allow(clippy::too_many_arguments)]
 fn solve_constrained(
     scenario: &Scenario,
     options: &MilpOptions,
     started: std::time::Instant,
+    share: Option<(f64, f64)>,
     i: usize,
     plan: &mut Receipts,
     component: &mut Component,
@@ -638,7 +679,61 @@ fn solve_constrained(
         items: vec![i],
         resources,
     };
-    let result = capacity::milp::solve(scenario, &[i], &remaining(options, started));
+    let mut limits = remaining(options, started);
+    if let Some((seconds, _)) = share {
+        limits.time_limit = limits.time_limit.min(seconds.max(0.05));
+        // Lot-for-lot within the lot rules as HiGHS's first incumbent, so
+        // that a short share still ends with a plan and a bound.
+        limits.start = Some(vec![rules::plan(item, Sizing::Rule(Rule::LotForLot))]);
+    }
+    let out_of_time = options.time_limit - started.elapsed().as_secs_f64() <= 0.0;
+    let result = if out_of_time && share.is_some() {
+        None
+    } else {
+        Some(capacity::milp::solve(scenario, &[i], &limits))
+    };
+    let no_plan = result
+        .as_ref()
+        .is_none_or(|r| r.status == capacity::milp::MilpStatus::NoPlan);
+    if let (true, Some((_, relaxed))) = (no_plan, share) {
+        let receipts = rules::plan(item, Sizing::Rule(Rule::LotForLot));
+        let alone = scenario.subset(&[i]);
+        let fits = evaluate(
+            &alone,
+            &Plan {
+                receipts: vec![receipts.clone()],
+            },
+        )
+        .feasible;
+        plan.set(i, receipts);
+        component.solver = "rule";
+        if fits {
+            if component.status == Status::Optimal {
+                component.status = Status::Feasible;
+            }
+            *lower_bound += relaxed;
+            notes.push(format!(
+                "item {}: HiGHS found no plan in its share of the time limit ({:.1} s); it is ordered lot-for-lot within its lot rules, and its lower bound is its least cost without them",
+                item.id, limits.time_limit
+            ));
+        } else {
+            component.status = Status::Unknown;
+            notes.push(format!(
+                "item {}: HiGHS found no plan in its share of the time limit ({:.1} s), and lot-for-lot within its lot rules breaks a constraint; the plan shown is that one, do not release it",
+                item.id, limits.time_limit
+            ));
+        }
+        return;
+    }
+    let Some(mut result) = result else { return };
+    let planned = matches!(
+        result.status,
+        capacity::milp::MilpStatus::Optimal | capacity::milp::MilpStatus::Feasible
+    );
+    if let (Some((_, relaxed)), true) = (share, planned) {
+        // Both are lower bounds; a short run's own may be the weaker.
+        result.lower_bound = result.lower_bound.max(relaxed).min(result.objective);
+    }
     component.solver = "milp";
     take_milp(
         scenario,
