@@ -121,15 +121,25 @@ fn status_words(result: &MethodResult) -> String {
     }
 }
 
+/// "1 item", "3 items".
+fn count(n: usize, noun: &str) -> String {
+    if n == 1 {
+        format!("1 {noun}")
+    } else {
+        format!("{n} {noun}s")
+    }
+}
+
 fn heading(scenario: &Scenario, out: &mut String) {
     let calendar = &scenario.calendar;
     let _ = writeln!(
         out,
-        "{}: {} items, {} {}s from {}{}",
+        "{}: {}, {} {}{} from {}{}",
         scenario.name,
-        scenario.items.len(),
+        count(scenario.items.len(), "item"),
         calendar.periods,
         calendar.kind.name(),
+        if calendar.periods == 1 { "" } else { "s" },
         calendar.label(0),
         scenario
             .currency
@@ -608,10 +618,10 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
         let calendar = &side.scenario.calendar;
         wrap(
             &format!(
-                "{label}: {} ({}, {} items, {} {}s from {})",
+                "{label}: {} ({}, {}, {} {}s from {})",
                 side.name,
                 side.scenario.name,
-                side.scenario.items.len(),
+                count(side.scenario.items.len(), "item"),
                 calendar.periods,
                 calendar.kind.name(),
                 calendar.label(0)
