@@ -4,23 +4,11 @@
 
 mod common;
 
-use std::process::Command;
+use common::lotwright;
 
 use lotwright::eval::evaluate;
 use lotwright::roll::{roll, Quiet, RollOptions};
 use serde_json::Value;
-
-fn lotwright(args: &[&str]) -> (i32, String, String) {
-    let output = Command::new(env!("CARGO_BIN_EXE_lotwright"))
-        .args(args)
-        .output()
-        .expect("the binary runs");
-    (
-        output.status.code().unwrap_or(-1),
-        String::from_utf8_lossy(&output.stdout).into_owned(),
-        String::from_utf8_lossy(&output.stderr).into_owned(),
-    )
-}
 
 /// Frame F needs 2 of bracket B. F sells 10 in week 2 and 10 in week 4;
 /// B has a firm order of 20 arriving in week 1 and nothing in stock.

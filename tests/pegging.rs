@@ -5,21 +5,9 @@
 
 mod common;
 
-use std::process::Command;
+use common::lotwright;
 
 use serde_json::{json, Value};
-
-fn lotwright(args: &[&str]) -> (i32, String, String) {
-    let output = Command::new(env!("CARGO_BIN_EXE_lotwright"))
-        .args(args)
-        .output()
-        .expect("the binary runs");
-    (
-        output.status.code().unwrap_or(-1),
-        String::from_utf8_lossy(&output.stdout).into_owned(),
-        String::from_utf8_lossy(&output.stderr).into_owned(),
-    )
-}
 
 /// Two parents share component C: P needs 2 (lead time 1 week), Q needs 1
 /// (no lead time). P sells 10 in week 3, Q 5 in week 2, and C has spares

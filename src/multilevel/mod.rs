@@ -266,21 +266,9 @@ pub fn solve_exact(
             let bound = joint.lower_bound.min(cost);
             let proven = joint.status == MilpStatus::Optimal
                 && (cost - bound) <= crate::capacity::milp::OPTIMALITY_GAP * cost.abs().max(1e-9);
-            let status = if !evaluation.feasible {
-                Status::Infeasible
-            } else if proven {
-                Status::Optimal
-            } else {
-                Status::Feasible
-            };
+            let status = judged(evaluation.feasible, proven);
             if staged.evaluation.feasible && evaluation.feasible {
-                let saving = staged_cost - cost;
-                notes.push(format!(
-                    "the joint plan costs {} less than the exact method applied level by level ({} against {})",
-                    crate::report::money(saving),
-                    crate::report::money(cost),
-                    crate::report::money(staged_cost)
-                ));
+                notes.push(saving_note(staged_cost, cost));
             }
             MethodResult {
                 components: vec![component(status)],
@@ -350,20 +338,8 @@ fn large_bill(
         );
     }
     let proven = bound.is_finite() && cost - bound <= OPTIMALITY_GAP * cost.abs().max(1e-9);
-    let status = if !evaluation.feasible {
-        Status::Infeasible
-    } else if proven {
-        Status::Optimal
-    } else {
-        Status::Feasible
-    };
-    let saving = staged.evaluation.total_cost() - cost;
-    notes.push(format!(
-        "the joint plan costs {} less than the exact method applied level by level ({} against {})",
-        crate::report::money(saving),
-        crate::report::money(cost),
-        crate::report::money(staged.evaluation.total_cost())
-    ));
+    let status = judged(evaluation.feasible, proven);
+    notes.push(saving_note(staged.evaluation.total_cost(), cost));
     MethodResult {
         components: Vec::new(),
         method: crate::solve::EXACT,
@@ -373,4 +349,25 @@ fn large_bill(
         lower_bound: bound.is_finite().then_some(bound),
         notes,
     }
+}
+
+/// A plan's status from its evaluation and its proof.
+fn judged(feasible: bool, proven: bool) -> Status {
+    if !feasible {
+        Status::Infeasible
+    } else if proven {
+        Status::Optimal
+    } else {
+        Status::Feasible
+    }
+}
+
+/// The note on what the joint plan saves against level by level.
+fn saving_note(staged_cost: f64, cost: f64) -> String {
+    format!(
+        "the joint plan costs {} less than the exact method applied level by level ({} against {})",
+        crate::report::money(staged_cost - cost),
+        crate::report::money(cost),
+        crate::report::money(staged_cost)
+    )
 }

@@ -93,3 +93,16 @@ pub fn assert_cost_eq(got: f64, expected: f64, what: &str) {
         "{what}: got {got}, expected {expected}"
     );
 }
+
+/// Runs the lotwright binary with `args`: its exit code, stdout and stderr.
+pub fn lotwright(args: &[&str]) -> (i32, String, String) {
+    let output = std::process::Command::new(env!("CARGO_BIN_EXE_lotwright"))
+        .args(args)
+        .output()
+        .expect("the binary runs");
+    (
+        output.status.code().unwrap_or(-1),
+        String::from_utf8_lossy(&output.stdout).into_owned(),
+        String::from_utf8_lossy(&output.stderr).into_owned(),
+    )
+}
