@@ -190,6 +190,9 @@ pub fn roll(
     let mut open = vec![vec![0.0; periods]; items];
     let mut executed: Vec<Release> = Vec::new();
     let mut actual = vec![vec![0.0; periods]; items];
+    // Firm orders of the scenario already carried out, by item and receipt
+    // bucket.
+    let mut firm_done = vec![vec![false; periods]; items];
     let mut previous: Option<(usize, Vec<Release>)> = None;
     let mut weeks = Vec::new();
     let mut total = Stability::default();
@@ -209,6 +212,11 @@ pub fn roll(
             item.demand[0] += (-stock[i]).max(0.0);
             for t in 0..end - b {
                 item.receipts[t] += open[i][b + t];
+                // A firm order of the scenario carried out in an earlier week
+                // is among the open orders now.
+                if firm_done[i][b + t] {
+                    item.firm[t] = (item.firm[t] - base.items[i].firm[b + t]).max(0.0);
+                }
             }
         }
         if let Some((_, orders)) = &previous {
@@ -256,6 +264,9 @@ pub fn roll(
         // demand happens.
         for order in releases.iter().filter(|o| o.bucket == b) {
             let receipt = order.bucket + base.items[order.item].lead_time;
+            if receipt < periods && base.items[order.item].firm[receipt] > 0.0 {
+                firm_done[order.item][receipt] = true;
+            }
             executed.push(*order);
             if receipt < periods {
                 open[order.item][receipt] += order.quantity;

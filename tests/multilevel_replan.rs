@@ -161,3 +161,52 @@ fn a_rolling_run_explodes_what_was_carried_out() {
         "the realised cost is the evaluation's",
     );
 }
+
+/// A firm order of a parent with a lead time, in a rolling run: frame F
+/// (lead time 1) has a firm order of 10 received in week 2, for its sale of
+/// 10 then; bracket B (1 per frame) has 10 in stock. Carried out in week 1,
+/// the firm order is an open order from then on; week 2's plan must not
+/// receive it a second time, nor call for its brackets again. By hand: no
+/// other order is needed, and B's 10 are issued in week 1, so nothing is
+/// held at the end of any week. The realised cost is F's firm setup, 100.
+#[test]
+fn a_parents_firm_order_is_carried_out_once_in_a_rolling_run() {
+    let dir = common::scenario_dir(&[
+        ("scenario.toml", &common::weekly_toml(4)),
+        (
+            "items.csv",
+            "item,setup_cost,holding_cost,initial_stock,lead_time\nF,100,1,0,1\nB,30,0.1,10,0\n",
+        ),
+        ("demand.csv", "item,period,quantity\nF,2,10\n"),
+        ("bom.csv", "parent,component,quantity_per\nF,B,1\n"),
+        ("orders-firm.csv", "item,period,quantity\nF,2,10\n"),
+    ]);
+    let base = lotwright::input::read_scenario(dir.path()).unwrap();
+    let history_dir = dir.path().join("history");
+    std::fs::create_dir_all(&history_dir).unwrap();
+    common::write_files(
+        &history_dir,
+        &[
+            ("2027-01-04.csv", "item,period,quantity\nF,2,10\n"),
+            ("2027-01-11.csv", "item,period,quantity\nF,1,10\n"),
+            ("2027-01-18.csv", "item,period,quantity\n"),
+        ],
+    );
+    let history = lotwright::input::read_history(&history_dir, &base).unwrap();
+    let options = RollOptions {
+        horizon: 2,
+        frozen: 0,
+        change_cost: 0.0,
+        method: "exact".into(),
+        milp: Default::default(),
+    };
+    let run = roll(&base, &history, &options, &Quiet).expect("a run");
+    assert_eq!(
+        run.executed.receipts[0],
+        vec![0.0, 10.0, 0.0, 0.0],
+        "F received once"
+    );
+    assert_eq!(run.executed.receipts[1], vec![0.0; 4], "no bracket ordered");
+    assert!(run.realised.feasible, "{:?}", run.realised.shortages);
+    common::assert_cost_eq(run.realised.total_cost(), 100.0, "the realised cost");
+}

@@ -641,7 +641,8 @@ pub(crate) fn snap_given(item: &Item, quantity: f64, whole_data: bool) -> f64 {
 /// as that whole number, for items whose data are whole.
 const WHOLE_SNAP: f64 = 1e-5;
 
-/// True when the item's demand, stocks, open and firm orders are all whole.
+/// True when the item's demand, stocks, open and firm orders and lot rules
+/// are all whole.
 pub(crate) fn has_whole_data(item: &Item) -> bool {
     let whole = |x: &f64| x.fract() == 0.0;
     item.demand.iter().all(whole)
@@ -651,6 +652,7 @@ pub(crate) fn has_whole_data(item: &Item) -> bool {
         && whole(&item.safety_stock)
         && whole(&item.ending_stock)
         && item.max_lot.as_ref().is_none_or(whole)
+        && item.lot_multiple.as_ref().is_none_or(whole)
         && whole(&item.min_lot)
 }
 

@@ -344,6 +344,20 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
             ..MilpResult::without_plan(MilpStatus::Infeasible, periods, items, started)
         };
     }
+    if options.relax {
+        // The relaxation's optimum is a lower bound on every plan; its
+        // fractional setups are no plan.
+        let optimal = matches!(status, HighsModelStatus::Optimal);
+        return MilpResult {
+            lower_bound: if optimal {
+                solved.objective_value() + constant
+            } else {
+                f64::NEG_INFINITY
+            },
+            hit_time_limit,
+            ..MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started)
+        };
+    }
     // HiGHS's code for a feasible solution is 2 (see capacity::milp).
     let has_plan = solved.int_info_value(c"primal_solution_status") == Ok(2)
         || matches!(status, HighsModelStatus::Optimal);
@@ -355,20 +369,6 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
     if !has_plan {
         return MilpResult {
             lower_bound: dual.map_or(f64::NEG_INFINITY, |b| b + constant),
-            hit_time_limit,
-            ..MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started)
-        };
-    }
-    if options.relax {
-        // The relaxation's optimum is a lower bound on every plan; its
-        // fractional setups are no plan.
-        let optimal = matches!(status, HighsModelStatus::Optimal);
-        return MilpResult {
-            lower_bound: if optimal {
-                solved.objective_value() + constant
-            } else {
-                f64::NEG_INFINITY
-            },
             hit_time_limit,
             ..MilpResult::without_plan(MilpStatus::NoPlan, periods, items, started)
         };

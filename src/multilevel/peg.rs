@@ -56,6 +56,20 @@ pub fn pegs(scenario: &Scenario, evaluation: &Evaluation) -> Vec<Peg> {
     pegs
 }
 
+/// The pegs of one component bucket, found by binary search in `pegs`
+/// (sorted by component and bucket, as `pegs` returns them).
+pub fn pegs_at(pegs: &[Peg], component: usize, bucket: usize) -> &[Peg] {
+    &pegs[range_at(pegs, component, bucket)]
+}
+
+/// Where the pegs of one component bucket stand in `pegs`.
+fn range_at(pegs: &[Peg], component: usize, bucket: usize) -> std::ops::Range<usize> {
+    let key = (component, bucket);
+    let from = pegs.partition_point(|p| (p.component, p.bucket) < key);
+    let to = pegs.partition_point(|p| (p.component, p.bucket) <= key);
+    from..to
+}
+
 /// What a shortage leaves without stock: units of the item's own demand,
 /// and units of parent orders' requirements (by index into `pegs`).
 #[derive(Debug, Clone, Default, PartialEq)]
@@ -88,12 +102,8 @@ pub fn shortage_causes(
             let tolerance = evaluation.items[i].tolerance;
             let mut left = shortage.quantity;
             for t in (0..shortage.period).rev() {
-                for (k, peg) in pegs
-                    .iter()
-                    .enumerate()
-                    .filter(|(_, p)| p.component == i && p.bucket == t)
-                    .rev()
-                {
+                for k in range_at(pegs, i, t).rev() {
+                    let peg = &pegs[k];
                     let take = left.min(peg.quantity);
                     if take > tolerance {
                         cause.parent_orders.push((k, take));
@@ -135,8 +145,8 @@ pub fn parent_orders_text(
     component: usize,
     bucket: usize,
 ) -> String {
-    pegs.iter()
-        .filter(|p| p.component == component && p.bucket == bucket)
+    pegs_at(pegs, component, bucket)
+        .iter()
         .map(|p| {
             format!(
                 "{}{} period {}: {}",
