@@ -2,19 +2,9 @@
 //! proven optimality within capacity, and a scenario whose capacity cannot
 //! carry its demand is explained.
 
-use std::process::Command;
+mod common;
 
-fn lotwright(args: &[&str]) -> (i32, String, String) {
-    let output = Command::new(env!("CARGO_BIN_EXE_lotwright"))
-        .args(args)
-        .output()
-        .expect("the binary runs");
-    (
-        output.status.code().unwrap_or(-1),
-        String::from_utf8_lossy(&output.stdout).into_owned(),
-        String::from_utf8_lossy(&output.stderr).into_owned(),
-    )
-}
+use common::lotwright;
 
 fn write(dir: &std::path::Path, files: &[(&str, &str)]) {
     for (name, body) in files {

@@ -104,24 +104,13 @@ fn compare_explodes_an_override_into_the_parts() {
     assert_eq!(bracket["b"]["demand"].as_f64(), Some(80.0));
 }
 
-/// `roll` over three weekly forecasts of the frame: the orders carried out
-/// are evaluated across both levels. The bracket's realised requirement is
-/// twice the frame's lots carried out, read from the executed plan, and
-/// every sale that happened is made on time.
-#[test]
-fn a_rolling_run_explodes_what_was_carried_out() {
-    let dir = frame_and_bracket(false);
+/// The exact method rolled over `snapshots` (file name, contents), written
+/// into DIR/history, each plan 2 weeks ahead, nothing frozen.
+fn roll_exact(dir: &tempfile::TempDir, snapshots: &[(&str, &str)]) -> lotwright::roll::RollResult {
     let base = lotwright::input::read_scenario(dir.path()).unwrap();
     let history_dir = dir.path().join("history");
     std::fs::create_dir_all(&history_dir).unwrap();
-    common::write_files(
-        &history_dir,
-        &[
-            ("2027-01-04.csv", "item,period,quantity\nF,2,10\n"),
-            ("2027-01-11.csv", "item,period,quantity\nF,1,12\nF,2,4\n"),
-            ("2027-01-18.csv", "item,period,quantity\nF,1,6\nF,2,10\n"),
-        ],
-    );
+    common::write_files(&history_dir, snapshots);
     let history = lotwright::input::read_history(&history_dir, &base).unwrap();
     let options = RollOptions {
         horizon: 2,
@@ -130,7 +119,24 @@ fn a_rolling_run_explodes_what_was_carried_out() {
         method: "exact".into(),
         milp: Default::default(),
     };
-    let run = roll(&base, &history, &options, &Quiet).expect("a run");
+    roll(&base, &history, &options, &Quiet).expect("a run")
+}
+
+/// `roll` over three weekly forecasts of the frame: the orders carried out
+/// are evaluated across both levels. The bracket's realised requirement is
+/// twice the frame's lots carried out, read from the executed plan, and
+/// every sale that happened is made on time.
+#[test]
+fn a_rolling_run_explodes_what_was_carried_out() {
+    let dir = frame_and_bracket(false);
+    let run = roll_exact(
+        &dir,
+        &[
+            ("2027-01-04.csv", "item,period,quantity\nF,2,10\n"),
+            ("2027-01-11.csv", "item,period,quantity\nF,1,12\nF,2,4\n"),
+            ("2027-01-18.csv", "item,period,quantity\nF,1,6\nF,2,10\n"),
+        ],
+    );
     // F has no lead time and no firm orders of its own, so what it received
     // in a week is what it released then.
     let bracket = &run.realised.items[1];
@@ -181,26 +187,14 @@ fn a_parents_firm_order_is_carried_out_once_in_a_rolling_run() {
         ("bom.csv", "parent,component,quantity_per\nF,B,1\n"),
         ("orders-firm.csv", "item,period,quantity\nF,2,10\n"),
     ]);
-    let base = lotwright::input::read_scenario(dir.path()).unwrap();
-    let history_dir = dir.path().join("history");
-    std::fs::create_dir_all(&history_dir).unwrap();
-    common::write_files(
-        &history_dir,
+    let run = roll_exact(
+        &dir,
         &[
             ("2027-01-04.csv", "item,period,quantity\nF,2,10\n"),
             ("2027-01-11.csv", "item,period,quantity\nF,1,10\n"),
             ("2027-01-18.csv", "item,period,quantity\n"),
         ],
     );
-    let history = lotwright::input::read_history(&history_dir, &base).unwrap();
-    let options = RollOptions {
-        horizon: 2,
-        frozen: 0,
-        change_cost: 0.0,
-        method: "exact".into(),
-        milp: Default::default(),
-    };
-    let run = roll(&base, &history, &options, &Quiet).expect("a run");
     assert_eq!(
         run.executed.receipts[0],
         vec![0.0, 10.0, 0.0, 0.0],

@@ -9,6 +9,19 @@ use common::lotwright;
 
 use serde_json::{json, Value};
 
+/// Runs `plan DIR --out DIR/out` and returns the output folder.
+fn plan_out(dir: &tempfile::TempDir) -> std::path::PathBuf {
+    let out = dir.path().join("out");
+    let (code, _, stderr) = lotwright(&[
+        "plan",
+        dir.path().to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 0, "{stderr}");
+    out
+}
+
 /// Two parents share component C: P needs 2 (lead time 1 week), Q needs 1
 /// (no lead time). P sells 10 in week 3, Q 5 in week 2, and C has spares
 /// demand of 3 in week 2 and 12 in stock. Setups 50; holding 5 a week for
@@ -123,14 +136,7 @@ fn without_a_bill_nothing_is_pegged() {
         ("items.csv", "item,setup_cost,holding_cost\nA,10,1\n"),
         ("demand.csv", "item,period,quantity\nA,2,4\n"),
     ]);
-    let out = dir.path().join("out");
-    let (code, _, stderr) = lotwright(&[
-        "plan",
-        dir.path().to_str().unwrap(),
-        "--out",
-        out.to_str().unwrap(),
-    ]);
-    assert_eq!(code, 0, "{stderr}");
+    let out = plan_out(&dir);
     let text = std::fs::read_to_string(out.join("records.csv")).unwrap();
     assert!(text.starts_with("item,period,date,gross_requirement,"));
     assert!(!text.lines().next().unwrap().contains("level"));
@@ -146,14 +152,7 @@ fn without_a_bill_nothing_is_pegged() {
 fn the_spreadsheet_carries_the_level_and_the_parent_orders() {
     use calamine::{open_workbook_from_rs, Data, DataType, Reader, Xlsx};
     let dir = shared_component();
-    let out = dir.path().join("out");
-    let (code, _, stderr) = lotwright(&[
-        "plan",
-        dir.path().to_str().unwrap(),
-        "--out",
-        out.to_str().unwrap(),
-    ]);
-    assert_eq!(code, 0, "{stderr}");
+    let out = plan_out(&dir);
     let bytes = std::fs::read(out.join("plan.xlsx")).unwrap();
     let mut workbook: Xlsx<_> = open_workbook_from_rs(std::io::Cursor::new(bytes)).unwrap();
     let range = workbook.worksheet_range("Stock records").unwrap();
