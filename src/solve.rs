@@ -581,7 +581,7 @@ fn solve_group(
                 component.solver = "milp";
                 // A plan that fits, if a quick search finds one, is HiGHS's
                 // first incumbent.
-                capacity::fix_optimize::solve_from_start(scenario, group, &limits)
+                capacity::staged::solve(scenario, group, &limits)
             }
             GroupSolver::Lagrangean | GroupSolver::FixAndOptimize => {
                 let search = if solver == GroupSolver::Lagrangean {

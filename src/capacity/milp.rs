@@ -35,6 +35,10 @@ pub struct MilpOptions {
     pub plain: bool,
     /// Solve the LP relaxation only (for the benchmark's bound comparison).
     pub relax: bool,
+    /// Let lot counts (whole units, lot multiples) be fractional while the
+    /// setups stay binary: a relaxation whose bound holds for the whole
+    /// problem and which HiGHS solves far faster (`staged`).
+    pub relax_multiples: bool,
     /// Find the least extra capacity that makes the plan possible instead
     /// of the least cost (for explaining infeasible capacity).
     pub extra_capacity: bool,
@@ -69,6 +73,7 @@ impl Default for MilpOptions {
             threads: None,
             plain: false,
             relax: false,
+            relax_multiples: false,
             extra_capacity: false,
             log_file: None,
             fixed: None,
@@ -210,7 +215,7 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
             &quantity,
             &mut vars,
             &mut constraints,
-            options.relax,
+            options.relax || options.relax_multiples,
         );
         if let (Some(start), Some(multiple)) = (&options.start, item.lot_multiple) {
             for (j, count) in counts {
@@ -399,7 +404,13 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     // changes the plan. (With extra capacity or priced overload the
     // objective is not the plan's cost, and an LP relaxation's fractional
     // setups are no plan; there HiGHS's own is judged.)
-    let judged = if options.extra_capacity || options.elastic.is_some() || options.relax {
+    // With relaxed lot counts the settled plan is rounded to multiples and
+    // is not the relaxation's solution either.
+    let judged = if options.extra_capacity
+        || options.elastic.is_some()
+        || options.relax
+        || options.relax_multiples
+    {
         objective_value
     } else {
         plan_cost
@@ -485,8 +496,10 @@ pub fn highs_option_accepted(name: &str, value: &str) -> bool {
 /// every quantity whole (a whole lot multiple on every item; whole demand,
 /// stock, receipts and floors) and every cost a whole number of steps of
 /// 10^-d for some d up to 6 (cents: d = 2). With overtime on a resource,
-/// per-unit and setup times and capacities must be whole as well, so that
-/// the overtime a plan needs is whole. Then two plans' costs differ by at
+/// per-unit and setup times and capacities must have at most e decimals
+/// (e up to 6), so that the overtime a plan needs is a whole number of
+/// steps of 10^-e, and its cost one of overtime_cost * 10^-e, which joins
+/// the other costs in finding d. Then two plans' costs differ by at
 /// least one step, and a gap below it proves optimality.
 pub fn cost_grid(scenario: &Scenario, items: &[usize]) -> Option<f64> {
     let whole = |x: f64| (x - x.round()).abs() <= 1e-9 * x.abs().max(1.0);
@@ -510,12 +523,18 @@ pub fn cost_grid(scenario: &Scenario, items: &[usize]) -> Option<f64> {
         for routing in scenario.routings_of(i) {
             let resource = &scenario.resources[routing.resource];
             if resource.overtime_capacity.iter().any(|&o| o > 0.0) {
+                // Overtime is a sum of times less a capacity: with whole
+                // quantities, a whole number of steps of 10^-d when every
+                // time and limit has at most d decimals, so its cost is a
+                // whole number of steps of overtime_cost * 10^-d.
                 let times = [routing.per_unit, routing.setup_time];
                 let limits = resource.capacity.iter().chain(&resource.overtime_capacity);
-                if !times.iter().chain(limits).all(|&x| whole(x)) {
-                    return None;
-                }
-                costs.push(resource.overtime_cost);
+                let values: Vec<f64> = times.iter().chain(limits).copied().collect();
+                let decimals = (0..=6).find(|&d| {
+                    let scale = 10f64.powi(d);
+                    values.iter().all(|&x| whole(x * scale))
+                })?;
+                costs.push(resource.overtime_cost / 10f64.powi(decimals));
             }
         }
     }

@@ -7,6 +7,7 @@ pub mod lagrange;
 pub mod milp;
 pub mod single_dp;
 mod smoothing;
+pub mod staged;
 
 use crate::model::Scenario;
 
