@@ -238,6 +238,53 @@ proptest! {
     }
 }
 
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 40, ..ProptestConfig::default() })]
+
+    /// The exact method's staged solve (`capacity::staged`: setups with
+    /// the lot counts relaxed, then the lots, then the whole MILP where
+    /// needed; fix-and-optimize beside it) on items in whole units whose
+    /// per-unit times make fractional lots tempting: its bound never lies
+    /// above the least cost an exhaustive search over whole quantities
+    /// finds, and its plan is that least cost, proven.
+    #[test]
+    fn staged_whole_units_equal_exhaustive_search_and_bound_it(
+        n in 2usize..4,
+        demand in prop::collection::vec(0u32..3, 9),
+        setups in prop::collection::vec(1u32..20, 3),
+        per_unit in prop::collection::vec(1u32..4, 3),
+        setup_time in prop::collection::vec(0u32..3, 3),
+        capacity in 3u32..12,
+    ) {
+        let periods = 3;
+        let items: Vec<Item> = (0..n)
+            .map(|i| {
+                let d: Vec<f64> = demand[i * periods..(i + 1) * periods].iter().map(|&x| x as f64).collect();
+                let mut it = item(&format!("I{i}"), &d, setups[i] as f64, 1.0 + i as f64 * 0.5);
+                it.lot_multiple = Some(1.0);
+                it
+            })
+            .collect();
+        let routings = (0..n)
+            .map(|i| Routing { item: i, resource: 0, per_unit: per_unit[i] as f64, setup_time: setup_time[i] as f64 })
+            .collect();
+        let s = scenario(items, vec![resource(capacity as f64, periods)], routings);
+        let group = lotwright::capacity::Group { items: (0..n).collect(), resources: vec![0] };
+        let result = lotwright::capacity::staged::solve(&s, &group, &MilpOptions::default());
+        match exhaustive(&s) {
+            None => prop_assert_eq!(result.status, MilpStatus::Infeasible),
+            Some(best) => {
+                prop_assert!(result.lower_bound <= best + 1e-6, "bound {} above the least cost {}", result.lower_bound, best);
+                prop_assert_eq!(result.status, MilpStatus::Optimal, "least cost {}, staged {} bound {}", best, result.objective, result.lower_bound);
+                prop_assert!(close(best, result.objective), "exhaustive {} staged {}", best, result.objective);
+                let evaluation = evaluate(&s, &Plan { receipts: result.receipts.clone() });
+                prop_assert!(evaluation.feasible);
+                prop_assert!(close(evaluation.total_cost(), result.objective));
+            }
+        }
+    }
+}
+
 /// Lot constraints are met exactly and the optimum is proven.
 #[test]
 fn lot_constraints_are_met_by_the_milp() {

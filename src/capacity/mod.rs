@@ -2,6 +2,7 @@
 //! item-resource graph, the MILP for components that share a resource, and
 //! the explanation when capacity cannot be met.
 
+pub(crate) mod beside;
 pub mod fix_optimize;
 pub mod lagrange;
 pub mod milp;

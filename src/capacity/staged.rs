@@ -26,11 +26,12 @@
 
 use std::time::Instant;
 
+use super::beside;
 use super::fix_optimize;
 use super::milp::{self, MilpOptions, MilpResult, MilpStatus};
 use super::Group;
-use crate::eval::quantity_tolerance;
-use crate::model::Scenario;
+use crate::eval::{evaluate, quantity_tolerance};
+use crate::model::{Plan, Scenario};
 
 /// Share of the time limit kept back from stage 1 for the stages after it.
 const LATER_SHARE: f64 = 0.15;
@@ -42,9 +43,41 @@ pub fn has_lot_counts(scenario: &Scenario, items: &[usize]) -> bool {
         .any(|&i| scenario.items[i].lot_multiple.is_some())
 }
 
-/// Solves the group's MILP in the stages above when its items have lot
-/// counts, else in one (with the start plan of `fix_optimize`).
+/// The exact method on a group that shares resources: the MILP (in the
+/// stages above when the items have lot counts, else in one, from the
+/// start plan of `fix_optimize`) with fix-and-optimize beside it
+/// (`beside`).
 pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions) -> MilpResult {
+    if options.relax || options.extra_capacity || group.items.len() < 2 {
+        return solve_alone(scenario, group, options);
+    }
+    let subset = scenario.subset(&group.items);
+    let judge = |receipts: &[Vec<f64>]| {
+        let evaluation = evaluate(
+            &subset,
+            &Plan {
+                receipts: receipts.to_vec(),
+            },
+        );
+        evaluation.feasible.then(|| evaluation.total_cost())
+    };
+    let setups = |receipts: &[Vec<f64>]| setup_pattern(scenario, &group.items, receipts);
+    let sub = |limits: &MilpOptions| milp::solve(scenario, &group.items, limits);
+    let program = beside::Program {
+        shape: (scenario.periods(), group.items.len()),
+        lot_counts: has_lot_counts(scenario, &group.items),
+        solve: &sub,
+        judge: &judge,
+        setups: &setups,
+    };
+    let start = fix_optimize::start_plan(scenario, group);
+    beside::race(&program, options, start, &|limits: &MilpOptions| {
+        solve_alone(scenario, group, limits)
+    })
+}
+
+/// The MILP alone, in stages where the items have lot counts.
+fn solve_alone(scenario: &Scenario, group: &Group, options: &MilpOptions) -> MilpResult {
     if !has_lot_counts(scenario, &group.items) || options.relax || options.extra_capacity {
         return fix_optimize::solve_from_start(scenario, group, options);
     }
@@ -139,9 +172,12 @@ pub(crate) fn in_stages(
             ..options.clone()
         });
         match third.status {
-            // The relaxation had a plan, so this is the time limit or the
-            // solver's failure; keep what stage 2 found.
-            MilpStatus::Infeasible | MilpStatus::NoPlan => {}
+            // The relaxation has plans, but none in whole units (a lot
+            // that fits only in part).
+            MilpStatus::Infeasible => return timed(third, started),
+            // The time limit or the solver's failure: keep what stage 2
+            // found.
+            MilpStatus::NoPlan => {}
             MilpStatus::Optimal => return timed(third, started),
             MilpStatus::Feasible => {
                 bound = bound.max(third.lower_bound);

@@ -14,6 +14,7 @@
 //!   on HiGHS, with its bound and gap.
 
 pub mod fix_optimize;
+mod joint;
 pub mod milp;
 pub mod peg;
 
@@ -214,30 +215,7 @@ pub fn solve_exact(
         ..options.clone()
     };
     let start = incumbent.1.feasible.then_some(&incumbent.0);
-    let all: Vec<usize> = (0..scenario.items.len()).collect();
-    let joint = if crate::capacity::staged::has_lot_counts(scenario, &all) {
-        // Whole units: the setups with relaxed lot counts first, then
-        // the lots (capacity::staged).
-        let program = |limits: &crate::capacity::milp::MilpOptions| {
-            let start = limits.start.clone().map(|receipts| Plan { receipts });
-            milp::solve(scenario, limits, start.as_ref())
-        };
-        let setups = |receipts: &[Vec<f64>]| {
-            crate::capacity::staged::setup_pattern(scenario, &all, receipts)
-        };
-        crate::capacity::staged::in_stages(
-            &crate::capacity::milp::MilpOptions {
-                start: start.map(|plan| plan.receipts.clone()),
-                ..joint_options
-            },
-            None,
-            (scenario.periods(), all.len()),
-            &program,
-            &setups,
-        )
-    } else {
-        milp::solve(scenario, &joint_options, start)
-    };
+    let joint = joint::solve(scenario, &joint_options, start);
     let staged_cost = staged.evaluation.total_cost();
     let result = match joint.status {
         MilpStatus::Infeasible => {

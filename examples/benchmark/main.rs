@@ -5,8 +5,8 @@
 //! ```text
 //! cargo run --release --example benchmark -- [--time-limit S]
 //!     [--formulation strong|plain|both] [--limit N] [--filter TEXT]
-//!     [--replicate LETTER] [--threads N] [--start] [--highs NAME=VALUE]
-//!     DIR_OR_FILES...
+//!     [--replicate LETTER] [--threads N] [--start | --exact] [--whole]
+//!     [--reference FILE] [--highs NAME=VALUE] DIR_OR_FILES...
 //! ```
 //!
 //! Each instance becomes a `Scenario` built in code: week buckets, one
@@ -27,11 +27,13 @@ use std::time::Instant;
 
 use clap::{Parser, ValueEnum};
 use lotwright::capacity::milp::{self, MilpOptions, MilpResult, MilpStatus};
-use lotwright::capacity::{fix_optimize, Group};
+use lotwright::capacity::{fix_optimize, staged, Group};
 use lotwright::eval::evaluate;
 use lotwright::input::literature;
 use lotwright::model::{Plan, Scenario};
 use lotwright::Error;
+
+mod reference;
 
 #[derive(Parser)]
 #[command(about = "Solve Trigeiro-Thomas-McClain instances with the lotwright MILP")]
@@ -59,6 +61,19 @@ struct Args {
     /// fix-and-optimize finds in a tenth of the limit); its time counts.
     #[arg(long)]
     start: bool,
+    /// Solve as `lotwright plan --method exact` does: the staged MILP
+    /// with fix-and-optimize beside it (`capacity::staged::solve`).
+    #[arg(long, conflicts_with = "start")]
+    exact: bool,
+    /// Make every item whole units (lot multiple 1), as a scenario folder
+    /// read by `lotwright` is by default; the files' quantities are
+    /// continuous otherwise.
+    #[arg(long)]
+    whole: bool,
+    /// A reference file (instance,best_plan,proven,best_bound): adds each
+    /// plan's deviation from the best known plan and totals.
+    #[arg(long, value_name = "FILE")]
+    reference: Option<PathBuf>,
     /// A HiGHS option set after the library's own, as NAME=VALUE
     /// (repeatable; for tuning experiments).
     #[arg(long, value_name = "NAME=VALUE")]
@@ -173,7 +188,16 @@ fn run(args: Args) -> Result<(), Failure> {
         }
         highs_options.push((name.to_string(), value.to_string()));
     }
-    let instances = read_instances(&args)?;
+    let mut instances = read_instances(&args)?;
+    if args.whole {
+        for item in instances.iter_mut().flat_map(|s| s.items.iter_mut()) {
+            item.lot_multiple = Some(1.0);
+        }
+    }
+    let references = match &args.reference {
+        Some(path) => reference::read(path)?,
+        None => Default::default(),
+    };
     if instances.is_empty() {
         return Err(Error::Usage("no instance matched the paths and filters given".into()).into());
     }
@@ -199,7 +223,14 @@ fn run(args: Args) -> Result<(), Failure> {
         formulation_name(args.formulation),
         threads,
         std::thread::available_parallelism().map_or(0, |n| n.get()),
-        if args.start { ", start plan" } else { "" },
+        match (args.exact, args.start, args.whole) {
+            (true, _, true) => ", as plan --method exact, whole units",
+            (true, _, false) => ", as plan --method exact",
+            (false, true, true) => ", start plan, whole units",
+            (false, true, false) => ", start plan",
+            (false, false, true) => ", whole units",
+            (false, false, false) => "",
+        },
         if args.highs.is_empty() {
             String::new()
         } else {
@@ -210,9 +241,17 @@ fn run(args: Args) -> Result<(), Failure> {
     out.flush()?;
     let started = Instant::now();
     let mut outcomes = Vec::with_capacity(instances.len());
+    let mut compared = Vec::new();
     for scenario in &instances {
         let main_plain = args.formulation == Formulation::Plain;
-        let main = if args.start {
+        let main = if args.exact {
+            let group = Group {
+                items: all_items(scenario),
+                resources: (0..scenario.resources.len()).collect(),
+            };
+            let result = staged::solve(scenario, &group, &options(false, false));
+            checked_run(scenario, result)
+        } else if args.start {
             let group = Group {
                 items: all_items(scenario),
                 resources: (0..scenario.resources.len()).collect(),
@@ -236,11 +275,24 @@ fn run(args: Args) -> Result<(), Failure> {
             outcome.lp_plain = relaxation(scenario, &options(true, true));
         }
         outcome.warnings = checks(&outcome);
-        writeln!(out, "{}", row(&outcome, both))?;
+        let reference = references.get(&outcome.name).copied();
+        let mut line = row(&outcome, both);
+        if !references.is_empty() {
+            let plan = outcome.main.has_plan().then_some(outcome.main.cost);
+            let deviation = plan
+                .zip(reference)
+                .and_then(|(c, r)| reference::deviation(c, &r));
+            line += &format!("  vs best {} %", number(deviation, 2));
+            compared.push((plan, outcome.main.bound, reference));
+        }
+        writeln!(out, "{line}")?;
         out.flush()?;
         outcomes.push(outcome);
     }
     write!(out, "{}", totals(&outcomes, args.formulation))?;
+    if !references.is_empty() {
+        write!(out, "{}", reference::summary(&compared))?;
+    }
     writeln!(
         out,
         "wall time {:.1} s; peak memory (VmHWM) {}",
