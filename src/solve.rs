@@ -2,6 +2,8 @@
 //! that share capacity), every lot rule for comparison, and one evaluation
 //! of each.
 
+mod bills;
+
 use rayon::prelude::*;
 use serde::Serialize;
 
@@ -198,9 +200,9 @@ pub fn plan_scenario_with(
     let wanted = |name: &str| method.is_none_or(|m| m == name);
     let mut comparison = Vec::new();
     if scenario.has_bom() && !wanted(EXACT) && wanted(by_level) {
-        comparison.push(crate::multilevel::exact_by_level(scenario, &options.milp));
+        comparison.push(bills::exact_by_level(scenario, &options.milp));
     } else if scenario.has_bom() && (wanted(EXACT) || wanted(by_level)) {
-        let (joint, staged) = crate::multilevel::solve_exact(scenario, &options.milp, progress);
+        let (joint, staged) = bills::solve_exact(scenario, &options.milp, progress);
         if wanted(EXACT) {
             comparison.push(joint);
         }
@@ -245,8 +247,7 @@ fn lift(scenario: &Scenario, free: &crate::replan::Free, result: MethodResult) -
         plan,
         evaluation,
         lower_bound,
-        notes: free
-            .notes(scenario)
+        notes: crate::report::notes::freeze(scenario, free)
             .into_iter()
             .chain(result.notes)
             .collect(),
@@ -261,7 +262,7 @@ fn has_fixed_lot(scenario: &Scenario) -> bool {
 /// The plan of one rule for every item.
 pub fn run_rule(scenario: &Scenario, rule: Rule) -> MethodResult {
     if scenario.has_bom() {
-        return crate::multilevel::by_level(scenario, rule.name(), &|level| run_rule(level, rule));
+        return bills::by_level(scenario, rule.name(), &|level| run_rule(level, rule));
     }
     if scenario.has_replanning() {
         let free = crate::replan::free_part(scenario);
@@ -319,7 +320,7 @@ pub fn solve_exact_with(
     progress: &dyn Progress,
 ) -> MethodResult {
     if scenario.has_bom() {
-        return crate::multilevel::solve_exact(scenario, options, progress).0;
+        return bills::solve_exact(scenario, options, progress).0;
     }
     if scenario.has_replanning() {
         let free = crate::replan::free_part(scenario);
@@ -870,7 +871,10 @@ fn no_plan_reason(
     if group.resources.is_empty() {
         format!("{names}: no plan meets the lot constraints and stock floors")
     } else {
-        capacity::explain_capacity(scenario, group, options)
+        crate::report::notes::capacity_shortfall(
+            scenario,
+            &capacity::explain_capacity(scenario, group, options),
+        )
     }
 }
 

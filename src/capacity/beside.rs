@@ -22,6 +22,7 @@ use std::sync::atomic::{AtomicBool, Ordering};
 use std::time::{Duration, Instant};
 
 use super::milp::{MilpOptions, MilpResult, MilpStatus, OPTIMALITY_GAP};
+use super::staged::Fixed;
 
 /// Width of the first time windows and size of the first item blocks;
 /// each pass without gain adds `GROW` to both.
@@ -46,7 +47,7 @@ pub(crate) struct Program<'a> {
     /// The cost of a plan, `None` when it breaks a constraint.
     pub judge: &'a (dyn Fn(&[Vec<f64>]) -> Option<f64> + Sync),
     /// The setups of a plan, fixed where it receives and closed elsewhere.
-    pub setups: &'a (dyn Fn(&[Vec<f64>]) -> Vec<Vec<Option<bool>>> + Sync),
+    pub setups: &'a (dyn Fn(&[Vec<f64>]) -> Fixed + Sync),
 }
 
 /// Runs `main` (the exact solve) and, from `start`, the search beside it

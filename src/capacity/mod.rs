@@ -167,30 +167,46 @@ pub fn cumulative_shortfall(
     None
 }
 
+/// Why a group cannot be planned within capacity, as data (the words are
+/// `report::notes::capacity_shortfall`'s).
+#[derive(Debug, Clone, PartialEq)]
+pub enum Shortfall {
+    /// The load that must be made by the end of release bucket `last`
+    /// (with one setup per item) exceeds `resource`'s capacity with
+    /// overtime over buckets 0..=last.
+    Cumulative {
+        resource: usize,
+        last: usize,
+        load: f64,
+        capacity: f64,
+    },
+    /// Capacity missing by (resource, release bucket, amount); `least`
+    /// when the MILP proved it the least that makes a plan possible.
+    Buckets {
+        places: Vec<(usize, usize, f64)>,
+        least: bool,
+    },
+    /// The search for the capacity missing ran out of time.
+    Undecided { resources: Vec<usize> },
+    /// No extra capacity alone makes a plan possible.
+    NotCapacity { resources: Vec<usize> },
+}
+
 /// Why a group cannot be planned within capacity: the cumulative test of
 /// `cumulative_shortfall` where it finds the cause, else the least extra
 /// capacity a plan needs.
-pub fn explain_capacity(scenario: &Scenario, group: &Group, options: &milp::MilpOptions) -> String {
-    let quantity = crate::report::quantity;
-    if let Some((r, t, load, capacity)) = cumulative_shortfall(scenario, group) {
-        let short = (load - capacity).ceil();
-        let first = scenario.period_offset + 1;
-        let (span, those) = if t == 0 {
-            (format!("in period {first}"), "that period")
-        } else {
-            (
-                format!("from period {first} to period {}", t + first),
-                "those periods",
-            )
+pub fn explain_capacity(
+    scenario: &Scenario,
+    group: &Group,
+    options: &milp::MilpOptions,
+) -> Shortfall {
+    if let Some((resource, last, load, capacity)) = cumulative_shortfall(scenario, group) {
+        return Shortfall::Cumulative {
+            resource,
+            last,
+            load,
+            capacity,
         };
-        return format!(
-            "resource {}: {span} the load that must be made by then ({}, with one setup per item) exceeds the capacity with overtime ({}) by {}; {} more overtime capacity in {those}, or backlog allowed on its items, would make a plan possible",
-            scenario.resources[r].id,
-            quantity(load.round()),
-            quantity(capacity.round()),
-            quantity(short),
-            quantity(short),
-        );
     }
     // The cumulative test misses what setup times, maximum lots, lead times
     // and several resources do together: ask the MILP for the least extra
@@ -202,43 +218,16 @@ pub fn explain_capacity(scenario: &Scenario, group: &Group, options: &milp::Milp
     };
     let result = milp::solve(scenario, &group.items, &extra);
     if !result.shortfall.is_empty() {
-        let places: Vec<String> = result
-            .shortfall
-            .iter()
-            .map(|&(r, t, amount)| {
-                format!(
-                    "{} in period {} ({})",
-                    quantity((amount * 1000.0).ceil() / 1000.0),
-                    t + 1 + scenario.period_offset,
-                    scenario.resources[r].id
-                )
-            })
-            .collect();
-        let proven = if result.status == milp::MilpStatus::Optimal {
-            "the least extra capacity that makes a plan possible is"
-        } else {
-            "a plan becomes possible with extra capacity of (not proven least)"
+        return Shortfall::Buckets {
+            places: result.shortfall,
+            least: result.status == milp::MilpStatus::Optimal,
         };
-        return format!(
-            "no plan fits the capacity in every bucket, although the cumulative load fits: setup times, maximum lots or lead times leave too little room; {proven} {}. Overtime of that much, or backlog, would make it feasible",
-            places.join(", ")
-        );
     }
-    let names: Vec<&str> = group
-        .resources
-        .iter()
-        .map(|&r| scenario.resources[r].id.as_str())
-        .collect();
+    let resources = group.resources.clone();
     if result.status != milp::MilpStatus::Infeasible {
-        return format!(
-            "no plan fits the capacity of {} in every bucket, although the cumulative load fits; the search for the capacity missing ran out of time before it found an answer",
-            names.join(", ")
-        );
+        return Shortfall::Undecided { resources };
     }
-    format!(
-        "no plan fits the capacity of {} in every bucket, and no extra capacity alone makes one possible: maximum lots, lot multiples or lead times rule it out",
-        names.join(", ")
-    )
+    Shortfall::NotCapacity { resources }
 }
 
 #[cfg(test)]

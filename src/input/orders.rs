@@ -76,7 +76,7 @@ pub fn read_firm_orders(path: &Path, scenario: &mut Scenario) -> Result<()> {
                 row.location,
                 format!(
                     "{} is not a whole number, and item {} is planned in whole units (lot_multiple in items.csv; 0 there makes it continuous)",
-                    crate::report::quantity(row.quantity),
+                    row.quantity,
                     item.id
                 ),
             ));

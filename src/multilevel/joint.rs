@@ -13,7 +13,7 @@ use crate::model::{Plan, Scenario};
 
 /// Solves the joint program from `start` (a plan within every constraint,
 /// if there is one).
-pub(super) fn solve(
+pub(crate) fn solve(
     scenario: &Scenario,
     options: &MilpOptions,
     start: Option<&Plan>,

@@ -124,38 +124,3 @@ pub fn shortage_causes(
         })
         .collect()
 }
-
-/// One peg in words: "FRAME-A's order of 60 for period 4".
-pub fn describe(scenario: &Scenario, peg: &Peg) -> String {
-    let kind = if peg.firm { "firm order" } else { "order" };
-    format!(
-        "{}'s {kind} of {} for period {}",
-        scenario.items[peg.parent].id,
-        crate::report::quantity(peg.parent_quantity),
-        peg.parent_receipt + 1
-    )
-}
-
-/// The parent orders behind one component bucket, for a table cell:
-/// "FRAME-A period 4: 120; FRAME-B period 5: 60" (the parent, its order's
-/// receipt period, the component units it calls for).
-pub fn parent_orders_text(
-    scenario: &Scenario,
-    pegs: &[Peg],
-    component: usize,
-    bucket: usize,
-) -> String {
-    pegs_at(pegs, component, bucket)
-        .iter()
-        .map(|p| {
-            format!(
-                "{}{} period {}: {}",
-                scenario.items[p.parent].id,
-                if p.firm { " (firm)" } else { "" },
-                p.parent_receipt + 1,
-                crate::report::quantity(p.quantity)
-            )
-        })
-        .collect::<Vec<_>>()
-        .join("; ")
-}

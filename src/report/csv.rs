@@ -4,7 +4,8 @@
 
 use super::clean;
 use crate::model::Scenario;
-use crate::multilevel::peg::{parent_orders_text, pegs};
+use crate::multilevel::peg::pegs;
+use crate::report::notes::parent_orders_text;
 use crate::solve::Outcome;
 
 fn write_rows(rows: Vec<Vec<String>>) -> Vec<u8> {

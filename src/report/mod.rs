@@ -7,6 +7,7 @@ pub mod eoq;
 pub mod figures;
 pub mod html;
 pub mod json;
+pub mod notes;
 mod svg;
 pub mod table;
 pub mod xlsx;

@@ -7,7 +7,8 @@ use super::{money, quantity};
 use crate::check::CheckReport;
 use crate::eval::{Evaluation, ViolationKind};
 use crate::model::Scenario;
-use crate::multilevel::peg::{describe, pegs, shortage_causes};
+use crate::multilevel::peg::{pegs, shortage_causes};
+use crate::report::notes::describe;
 use crate::solve::{cautions, MethodResult, Outcome, Status};
 
 /// How much of the bucket records to show.

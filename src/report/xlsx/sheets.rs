@@ -5,8 +5,9 @@ use rust_xlsxwriter::{Worksheet, XlsxError};
 
 use super::{in_currency, table, table_sheet, write_cell, yes_no, Cell, Formats};
 use crate::model::Scenario;
-use crate::multilevel::peg::{parent_orders_text, pegs};
+use crate::multilevel::peg::pegs;
 use crate::report::figures;
+use crate::report::notes::parent_orders_text;
 use crate::solve::{cautions, Outcome};
 
 pub(super) fn summary(

@@ -1,0 +1,161 @@
+//! Notes in words for what the engines return as data: why a group cannot
+//! be planned within capacity, what the freeze leaves short, and the parent
+//! orders behind a component's requirement.
+
+use crate::capacity::Shortfall;
+use crate::model::Scenario;
+use crate::multilevel::peg::{pegs_at, Peg};
+use crate::replan::Free;
+
+use super::quantity;
+
+/// Why no plan fits the capacity, with what would make one possible.
+pub fn capacity_shortfall(scenario: &Scenario, shortfall: &Shortfall) -> String {
+    let names = |resources: &[usize]| {
+        resources
+            .iter()
+            .map(|&r| scenario.resources[r].id.as_str())
+            .collect::<Vec<_>>()
+            .join(", ")
+    };
+    match shortfall {
+        Shortfall::Cumulative {
+            resource,
+            last,
+            load,
+            capacity,
+        } => {
+            let short = (load - capacity).ceil();
+            let first = scenario.period_offset + 1;
+            let (span, those) = if *last == 0 {
+                (format!("in period {first}"), "that period")
+            } else {
+                (
+                    format!("from period {first} to period {}", last + first),
+                    "those periods",
+                )
+            };
+            format!(
+                "resource {}: {span} the load that must be made by then ({}, with one setup per item) exceeds the capacity with overtime ({}) by {}; {} more overtime capacity in {those}, or backlog allowed on its items, would make a plan possible",
+                scenario.resources[*resource].id,
+                quantity(load.round()),
+                quantity(capacity.round()),
+                quantity(short),
+                quantity(short),
+            )
+        }
+        Shortfall::Buckets { places, least } => {
+            let places: Vec<String> = places
+                .iter()
+                .map(|&(r, t, amount)| {
+                    format!(
+                        "{} in period {} ({})",
+                        quantity((amount * 1000.0).ceil() / 1000.0),
+                        t + 1 + scenario.period_offset,
+                        scenario.resources[r].id
+                    )
+                })
+                .collect();
+            let proven = if *least {
+                "the least extra capacity that makes a plan possible is"
+            } else {
+                "a plan becomes possible with extra capacity of (not proven least)"
+            };
+            format!(
+                "no plan fits the capacity in every bucket, although the cumulative load fits: setup times, maximum lots or lead times leave too little room; {proven} {}. Overtime of that much, or backlog, would make it feasible",
+                places.join(", ")
+            )
+        }
+        Shortfall::Undecided { resources } => format!(
+            "no plan fits the capacity of {} in every bucket, although the cumulative load fits; the search for the capacity missing ran out of time before it found an answer",
+            names(resources)
+        ),
+        Shortfall::NotCapacity { resources } => format!(
+            "no plan fits the capacity of {} in every bucket, and no extra capacity alone makes one possible: maximum lots, lot multiples or lead times rule it out",
+            names(resources)
+        ),
+    }
+}
+
+/// One peg in words: "FRAME-A's order of 60 for period 4".
+pub fn describe(scenario: &Scenario, peg: &Peg) -> String {
+    let kind = if peg.firm { "firm order" } else { "order" };
+    format!(
+        "{}'s {kind} of {} for period {}",
+        scenario.items[peg.parent].id,
+        quantity(peg.parent_quantity),
+        peg.parent_receipt + 1
+    )
+}
+
+/// The parent orders behind one component bucket, for a table cell:
+/// "FRAME-A period 4: 120; FRAME-B period 5: 60" (the parent, its order's
+/// receipt period, the component units it calls for).
+pub fn parent_orders_text(
+    scenario: &Scenario,
+    pegs: &[Peg],
+    component: usize,
+    bucket: usize,
+) -> String {
+    pegs_at(pegs, component, bucket)
+        .iter()
+        .map(|p| {
+            format!(
+                "{}{} period {}: {}",
+                scenario.items[p.parent].id,
+                if p.firm { " (firm)" } else { "" },
+                p.parent_receipt + 1,
+                quantity(p.quantity)
+            )
+        })
+        .collect::<Vec<_>>()
+        .join("; ")
+}
+
+/// What a planner should read about the freeze and the firm orders.
+pub fn freeze(scenario: &Scenario, free: &Free) -> Vec<String> {
+    // Buckets as the planner knows them (a window of a longer run
+    // starts later than period 1).
+    let offset = scenario.period_offset;
+    let mut notes = Vec::new();
+    for s in &free.shortfalls {
+        let item = &scenario.items[s.item];
+        let arrival = scenario.first_arrival(item) + 1;
+        let when = if arrival <= scenario.periods() {
+            format!(
+                "the first new order can arrive in period {}, and the plan brings the units in then",
+                arrival + offset
+            )
+        } else {
+            "no new order can arrive before the horizon ends".to_string()
+        };
+        let lead = match item.lead_time {
+            1 => "1 bucket".to_string(),
+            n => format!("{n} buckets"),
+        };
+        let frozen = match scenario.frozen {
+            1 => format!("release in period {} is frozen", offset + 1),
+            n => format!(
+                "releases in periods {} to {} are frozen",
+                offset + 1,
+                offset + n
+            ),
+        };
+        notes.push(format!(
+            "item {}: short from period {} (up to {} units), inside the frozen horizon: {frozen} (only firm orders and receipts), and with a lead time of {lead} {when}. Add or enlarge a firm order, expedite a receipt, shorten the freeze, or allow backlog",
+            item.id,
+            s.bucket + 1 + offset,
+            quantity(s.quantity),
+        ));
+    }
+    for o in &free.overloads {
+        notes.push(format!(
+            "resource {}: the firm orders released in period {} alone load it to {}, beyond its capacity with overtime ({}); move or split a firm order",
+            scenario.resources[o.resource].id,
+            o.bucket + 1 + offset,
+            quantity(o.load),
+            quantity(o.limit),
+        ));
+    }
+    notes
+}
