@@ -110,11 +110,15 @@ fn status_words(result: &MethodResult) -> String {
     match result.status {
         Status::Optimal => "proven optimal".to_string(),
         Status::Feasible => match result.gap() {
-            Some(gap) => format!(
-                "feasible, not proven optimal: lower bound {}, gap {:.2} %",
-                money(result.lower_bound.unwrap_or(0.0)),
-                100.0 * gap
-            ),
+            Some(gap) => {
+                let bound = result.lower_bound.unwrap_or(0.0);
+                format!(
+                    "feasible, not proven optimal: no plan can cost less than {} (the lower bound), so this plan costs at most {} ({:.2} %) above the least possible cost",
+                    money(bound),
+                    money((result.total_cost() - bound).max(0.0)),
+                    100.0 * gap
+                )
+            }
             None => "feasible".to_string(),
         },
         Status::Infeasible => super::figures::status_phrase(result.status, result.is_exact()),
