@@ -6,7 +6,8 @@
 //!
 //! ```text
 //! cargo run --release --example textbook_fl -- [--time-limit S] [--threads N]
-//!     [--filter TEXT]... [--limit N] [--lp] [--item-capacity-rows] DIR_OR_FILES...
+//!     [--filter TEXT]... [--limit N] [--lp] [--item-capacity-rows] [--exact]
+//!     DIR_OR_FILES...
 //! ```
 //!
 //! `--lp` also solves both LP relaxations. `--item-capacity-rows` adds to the
@@ -73,6 +74,11 @@ struct Args {
     /// setup time, times its setup), to tell that row's effect from noise.
     #[arg(long)]
     item_capacity_rows: bool,
+    /// Solve lotwright's side as `plan --method exact` does
+    /// (`capacity::staged::solve`: the start plan, fix-and-optimize beside
+    /// the MILP on the second core) instead of the MILP alone.
+    #[arg(long)]
+    exact: bool,
     /// Instance files, or folders (every file in them that looks like an instance).
     #[arg(required = true, value_name = "DIR_OR_FILES")]
     paths: Vec<PathBuf>,
@@ -167,10 +173,10 @@ fn run(args: Args) -> io::Result<()> {
             item_capacity_rows: args.item_capacity_rows,
         };
         let textbook = solve_textbook(scenario, &textbook_model(false));
-        let lotwright = solve_lotwright(scenario, &options(false));
+        let lotwright = solve_lotwright(scenario, &options(false), args.exact);
         let lp = args.lp.then(|| {
             let textbook = solve_textbook(scenario, &textbook_model(true));
-            let lotwright = solve_lotwright(scenario, &options(true));
+            let lotwright = solve_lotwright(scenario, &options(true), false);
             let value = |run: Run| {
                 if run.status == MilpStatus::Optimal {
                     run.solver_objective
@@ -430,9 +436,17 @@ fn solve_textbook(scenario: &Scenario, options: &Textbook) -> Run {
 }
 
 /// The library's model on all items as one component.
-fn solve_lotwright(scenario: &Scenario, options: &MilpOptions) -> Run {
+fn solve_lotwright(scenario: &Scenario, options: &MilpOptions, exact: bool) -> Run {
     let items: Vec<usize> = (0..scenario.items.len()).collect();
-    let result = milp::solve(scenario, &items, options);
+    let result = if exact {
+        let group = lotwright::capacity::Group {
+            items,
+            resources: (0..scenario.resources.len()).collect(),
+        };
+        lotwright::capacity::staged::solve(scenario, &group, options)
+    } else {
+        milp::solve(scenario, &items, options)
+    };
     if !matches!(result.status, MilpStatus::Optimal | MilpStatus::Feasible) {
         return Run::without_plan(result.status, result.lower_bound, result.seconds);
     }

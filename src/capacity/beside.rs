@@ -19,6 +19,7 @@
 //! MILP's bound: the one evaluation judges both.
 
 use std::sync::atomic::{AtomicBool, Ordering};
+use std::sync::Arc;
 use std::time::{Duration, Instant};
 
 use super::milp::{MilpOptions, MilpResult, MilpStatus, OPTIMALITY_GAP};
@@ -62,7 +63,7 @@ pub(crate) fn race(
     let Some(start) = start else {
         return main(options);
     };
-    let stop = AtomicBool::new(false);
+    let stop = Arc::new(AtomicBool::new(false));
     let deadline = Instant::now() + Duration::from_secs_f64(options.time_limit);
     // The threads stay as the planner set them (or HiGHS's default): HiGHS
     // has one scheduler per process, and a solve that asks for another
@@ -107,7 +108,7 @@ fn improve(
     program: &Program,
     options: &MilpOptions,
     start: (Vec<Vec<f64>>, f64),
-    stop: &AtomicBool,
+    stop: &Arc<AtomicBool>,
     deadline: Instant,
 ) -> (Vec<Vec<f64>>, f64) {
     let (periods, items) = program.shape;
@@ -148,6 +149,7 @@ fn improve(
                 start: Some(plan.clone()),
                 relax_multiples: program.lot_counts,
                 log_file: None,
+                interrupt: Some(stop.clone()),
                 ..options.clone()
             };
             let mut result = (program.solve)(&sub);

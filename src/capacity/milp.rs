@@ -59,6 +59,9 @@ pub struct MilpOptions {
     /// What plans groups of several items (the `solve` module reads it;
     /// this function always solves the MILP).
     pub solver: super::GroupSolver,
+    /// Once set, HiGHS stops at its next check and the solve returns what
+    /// it has (`interrupt`; the search beside the MILP stops this way).
+    pub interrupt: Option<std::sync::Arc<std::sync::atomic::AtomicBool>>,
     /// HiGHS options set after the library's own (name, value), for
     /// tuning experiments: `true`/`false`, whole numbers and decimals are
     /// passed as such, anything else as text.
@@ -80,6 +83,7 @@ impl Default for MilpOptions {
             elastic: None,
             start: None,
             solver: super::GroupSolver::Auto,
+            interrupt: None,
             highs_options: Vec::new(),
         }
     }
@@ -468,6 +472,9 @@ pub(crate) fn configure(model: &mut highs::Model, options: &MilpOptions, abs_gap
     }
     for (name, value) in &options.highs_options {
         let _ = apply_highs_option(model, name, value);
+    }
+    if let Some(flag) = &options.interrupt {
+        super::interrupt::watch(model, flag);
     }
 }
 

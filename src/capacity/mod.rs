@@ -4,6 +4,8 @@
 
 pub(crate) mod beside;
 pub mod fix_optimize;
+#[allow(unsafe_code)]
+mod interrupt;
 pub mod lagrange;
 pub mod milp;
 pub mod single_dp;
