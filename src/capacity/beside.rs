@@ -68,12 +68,15 @@ pub(crate) fn race(
     // The threads stay as the planner set them (or HiGHS's default): HiGHS
     // has one scheduler per process, and a solve that asks for another
     // thread count than the first one did fails.
-    let (result, found) = std::thread::scope(|scope| {
+    let started = Instant::now();
+    let (mut result, found) = std::thread::scope(|scope| {
         let search = scope.spawn(|| improve(program, options, start, &stop, deadline));
         let result = main(options);
         stop.store(true, Ordering::SeqCst);
         (result, search.join().ok())
     });
+    // The seconds until the search has stopped too.
+    result.seconds = started.elapsed().as_secs_f64();
     let Some((plan, cost)) = found else {
         return result;
     };
