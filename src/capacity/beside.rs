@@ -35,6 +35,8 @@ const GROW: usize = 2;
 const SUBPROBLEM_LIMIT: f64 = 2.0;
 /// Share of the time limit the first subproblem (everything free) may take.
 const FIRST_SHARE: f64 = 0.2;
+/// Share of the time limit the search waits before it starts.
+const DELAY_SHARE: f64 = 0.1;
 
 /// The program being solved, as the search sees it.
 pub(crate) struct Program<'a> {
@@ -116,6 +118,15 @@ fn improve(
 ) -> (Vec<Vec<f64>>, f64) {
     let (periods, items) = program.shape;
     let (mut plan, mut cost) = start;
+    // The search waits a while: most groups are proven by then, and the
+    // MILP has both cores to itself meanwhile.
+    let begin = Instant::now() + Duration::from_secs_f64(options.time_limit * DELAY_SHARE);
+    while Instant::now() < begin {
+        if stop.load(Ordering::SeqCst) {
+            return (plan, cost);
+        }
+        std::thread::sleep(Duration::from_millis(20));
+    }
     let mut width = WINDOW.min(periods);
     let mut block = BLOCK.min(items);
     // The first subproblem frees everything for a share of the time: a
