@@ -11,7 +11,7 @@ docs/python.md.
 from . import errors
 from .commands import check, compare, eoq, plan, roll
 from .errors import InputError, InternalError, LotwrightError, OutputError, UsageError
-from .grid import grid, policies
+from .grids import grid, policies
 from .results import CheckResult, CompareResult, EoqResult, PlanResult, RollResult
 from .scenario import Scenario
 
