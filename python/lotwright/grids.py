@@ -34,7 +34,8 @@ COLUMNS = [
     "run", "scenario", "command", "method", *[p for p in PARAMETERS if p != "method"],
     "status", "total_cost", "setup_cost", "holding_cost", "unit_cost", "backlog_cost",
     "overtime_cost", "lower_bound", "gap_found", "realised_cost", "fill_rate", "stability",
-    "setups", "error", "seconds",
+    "setups", "weeks_optimal", "weeks_feasible", "weeks_infeasible", "weeks_unknown",
+    "error", "seconds",
 ]
 
 
@@ -138,6 +139,7 @@ def _roll_row(result: RollResult) -> Dict[str, Any]:
         "lower_bound": None, "gap_found": m["largest_gap"], "realised_cost": realised["total_cost"],
         "fill_rate": realised["fill_rate"], "stability": m["stability"]["mean_share_changed"],
         "setups": realised["setups"],
+        **{f"weeks_{k}": v for k, v in m["statuses"].items()},
     }
 
 

@@ -64,3 +64,10 @@ def test_without_a_client_the_grid_starts_and_closes_its_own_local_cluster():
     pd.testing.assert_frame_equal(local[COMPARED], serial[COMPARED])
     assert local["method"].tolist() == ["exact", "exact", "silver-meal", "silver-meal"]
     assert local["error"].isna().all()
+
+
+def test_a_roll_row_counts_its_weekly_statuses():
+    folder = demo("harbor-bakeware-four-weeks")
+    row = lw.grid(folder, history=demo("harbor-bakeware-four-weeks/history"), horizon=3, serial=True).iloc[0]
+    weeks = [row[f"weeks_{s}"] for s in ("optimal", "feasible", "infeasible", "unknown")]
+    assert weeks == [4, 0, 0, 0] and row["status"] == "optimal"
