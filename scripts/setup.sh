@@ -1,8 +1,9 @@
 #!/usr/bin/env bash
 # Installs what a fresh Debian machine with only Rust and gcc lacks: cmake,
 # libclang and a C++ compiler, which building HiGHS needs, and Chromium with
-# a font, which the browser test of report.html runs headless. Does nothing
-# when they are already there.
+# a font, which the browser test of report.html runs headless; and the venv
+# module of Python where it is missing (make python). Does nothing when
+# they are already there.
 set -euo pipefail
 
 need=()
@@ -15,6 +16,11 @@ if ! ls /usr/lib/llvm-*/lib/libclang.so >/dev/null 2>&1 && ! ls /usr/lib/x86_64-
 fi
 command -v chromium >/dev/null 2>&1 || need+=(chromium)
 [ -e /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf ] || need+=(fonts-dejavu-core)
+# make python creates a virtual environment: Debian's python3 has venv
+# and ensurepip only with python3-venv.
+if command -v python3 >/dev/null 2>&1 && ! python3 -c 'import venv, ensurepip' >/dev/null 2>&1; then
+  need+=(python3-venv)
+fi
 
 if [ ${#need[@]} -gt 0 ]; then
   echo "setup: installing ${need[*]}"
