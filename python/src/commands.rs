@@ -36,9 +36,10 @@ pub fn plan<'py>(
     documents: bool,
 ) -> PyResult<(String, Bound<'py, PyDict>)> {
     let milp = milp_options(time_limit, gap, threads, solver)?;
+    let cancel = milp.interrupt.clone();
     let scenario = read_scenario(dir, &sets, frozen)?;
     let options = solve::Options { method, milp };
-    let (scenario, outcome) = wait_for(py, move || {
+    let (scenario, outcome) = wait_for(py, cancel, move || {
         let outcome = solve::plan_scenario(&scenario, &options);
         (scenario, outcome)
     })?;
@@ -86,9 +87,10 @@ pub fn check(
     solver: &str,
 ) -> PyResult<String> {
     let milp = milp_options(time_limit, gap, threads, solver)?;
+    let cancel = milp.interrupt.clone();
     let scenario = read_scenario(dir, &[], frozen)?;
     let proposal = lotwright::input::read_orders(Path::new(orders), &scenario).map_err(to_py)?;
-    let value = wait_for(py, move || {
+    let value = wait_for(py, cancel, move || {
         let report = lotwright::check::check(&scenario, &proposal, &milp);
         report::json::check(&scenario, &report)
     })?;
@@ -116,6 +118,7 @@ pub fn compare(
 ) -> PyResult<String> {
     use lotwright::compare::{apply, parse_override, Comparison, Side};
     let milp = milp_options(time_limit, gap, threads, solver)?;
+    let cancel = milp.interrupt.clone();
     let overrides = sets
         .iter()
         .map(|text| parse_override(text))
@@ -138,7 +141,7 @@ pub fn compare(
         name_b = format!("{name_b} with {}", sets.join(", "));
     }
     let options = solve::Options { method, milp };
-    let value = wait_for(py, move || {
+    let value = wait_for(py, cancel, move || {
         let planned_a = solve::plan_scenario(&scenario_a, &options)?;
         let planned_b = solve::plan_scenario(&scenario_b, &options)?;
         let comparison = Comparison::new(
@@ -182,6 +185,7 @@ pub fn roll(
     threads: Option<u32>,
 ) -> PyResult<String> {
     let milp = milp_options(Some(time_limit.unwrap_or(5.0)), None, threads, "auto")?;
+    let cancel = milp.interrupt.clone();
     if horizon == 0 {
         return Err(usage("horizon must be at least 1 bucket"));
     }
@@ -203,7 +207,7 @@ pub fn roll(
     let history = lotwright::input::read_history(Path::new(history), &scenario).map_err(to_py)?;
     let runs = roll_runs(&scenario, methods, change_cost, plain_too)?;
     let time_limit = milp.time_limit;
-    let value = wait_for(py, move || {
+    let value = wait_for(py, cancel, move || {
         let mut results = Vec::new();
         for (method, cost) in runs {
             let options = RollOptions {

@@ -11,7 +11,9 @@
 
 mod commands;
 
+use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::mpsc::{self, RecvTimeoutError};
+use std::sync::Arc;
 use std::time::Duration;
 
 use lotwright::capacity::milp::MilpOptions;
@@ -59,10 +61,10 @@ fn usage(message: impl Into<String>) -> PyErr {
 
 /// Runs `work` on its own thread with the GIL released, and waits for it
 /// while Python's signal handlers still run: Ctrl-C raises
-/// KeyboardInterrupt here within a tenth of a second. The library has no
-/// way to stop a solve from outside, so the thread then runs on until the
-/// solve ends (the time limit bounds it) and its result is dropped.
-fn wait_for<T, F>(py: Python<'_>, work: F) -> PyResult<T>
+/// KeyboardInterrupt here within a tenth of a second. `cancel` (the MILP
+/// options' interrupt flag) is then set, so HiGHS stops at its next check
+/// and the thread ends soon after; its result is dropped.
+fn wait_for<T, F>(py: Python<'_>, cancel: Option<Arc<AtomicBool>>, work: F) -> PyResult<T>
 where
     T: Send + 'static,
     F: FnOnce() -> T + Send + 'static,
@@ -90,7 +92,14 @@ where
         receiver = back;
         match waited {
             Ok(value) => return Ok(value),
-            Err(RecvTimeoutError::Timeout) => py.check_signals()?,
+            Err(RecvTimeoutError::Timeout) => {
+                if let Err(interrupted) = py.check_signals() {
+                    if let Some(flag) = &cancel {
+                        flag.store(true, Ordering::SeqCst);
+                    }
+                    return Err(interrupted);
+                }
+            }
             Err(RecvTimeoutError::Disconnected) => {
                 return Err(to_py(Error::Internal(
                     "the solve stopped without a result".into(),
@@ -107,7 +116,11 @@ fn milp_options(
     threads: Option<u32>,
     solver: &str,
 ) -> PyResult<MilpOptions> {
-    let mut options = MilpOptions::default();
+    let mut options = MilpOptions {
+        // Set by `wait_for` on Ctrl-C.
+        interrupt: Some(Arc::new(AtomicBool::new(false))),
+        ..MilpOptions::default()
+    };
     if let Some(seconds) = time_limit {
         if !(seconds.is_finite() && seconds > 0.0) {
             return Err(usage(format!(
