@@ -54,6 +54,9 @@ fn raise(py: Python<'_>, error: &Error) -> PyResult<PyErr> {
     Ok(PyErr::from_value(instance))
 }
 
+/// How long Ctrl-C waits for a stopped solve's thread to end.
+const WIND_DOWN: Duration = Duration::from_secs(10);
+
 /// A usage error (a bad argument) as the package's exception.
 fn usage(message: impl Into<String>) -> PyErr {
     to_py(Error::usage(message))
@@ -96,6 +99,11 @@ where
                 if let Err(interrupted) = py.check_signals() {
                     if let Some(flag) = &cancel {
                         flag.store(true, Ordering::SeqCst);
+                        // HiGHS stops at its next check: let the thread
+                        // wind down, so that it is not still inside HiGHS
+                        // if the interpreter exits right after this (a
+                        // measured crash at exit otherwise).
+                        let _ = py.allow_threads(move || receiver.recv_timeout(WIND_DOWN));
                     }
                     return Err(interrupted);
                 }
