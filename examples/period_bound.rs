@@ -141,6 +141,35 @@ fn share_rows(problem: &mut ColProblem, data: &Data) -> Shares {
     }
 }
 
+/// The share columns of item i received in bucket j, each entering
+/// `work` with `work.1` per unit of demand, and the setup column, entering
+/// `setup` with `setup.1`.
+fn item_columns(
+    problem: &mut ColProblem,
+    data: &Data,
+    shares: &Shares,
+    (i, j): (usize, usize),
+    work: (Row, f64),
+    setup: (Row, f64),
+) {
+    for &(t, row) in &shares.share_rows[i][j] {
+        let d = data.demand[i][t];
+        let demand_row = shares.demand_rows[i][t].expect("a share row has demand");
+        let cost = data.holding[i] * d * (t - j) as f64;
+        problem.add_column(
+            cost,
+            0.0..=1.0,
+            [(demand_row, 1.0), (row, 1.0), (work.0, work.1 * d)],
+        );
+    }
+    let mut factors: Vec<(Row, f64)> = shares.share_rows[i][j]
+        .iter()
+        .map(|&(_, r)| (r, -1.0))
+        .collect();
+    factors.push(setup);
+    problem.add_column(data.setup[i], 0.0..=1.0, factors);
+}
+
 /// The facility-location LP with the capacity rows themselves.
 fn location_lp(data: &Data) -> f64 {
     let (n, periods) = (data.demand.len(), data.capacity.len());
@@ -151,23 +180,9 @@ fn location_lp(data: &Data) -> f64 {
         .collect();
     for i in 0..n {
         for j in 0..periods {
-            for &(t, row) in &shares.share_rows[i][j] {
-                let d = data.demand[i][t];
-                let demand_row = shares.demand_rows[i][t].expect("a share row has demand");
-                let cost = data.holding[i] * d * (t - j) as f64;
-                let factors = [
-                    (demand_row, 1.0),
-                    (row, 1.0),
-                    (capacity[j], data.per_unit[i] * d),
-                ];
-                problem.add_column(cost, 0.0..=1.0, factors);
-            }
-            let mut factors: Vec<(Row, f64)> = shares.share_rows[i][j]
-                .iter()
-                .map(|&(_, r)| (r, -1.0))
-                .collect();
-            factors.push((capacity[j], data.setup_time[i]));
-            problem.add_column(data.setup[i], 0.0..=1.0, factors);
+            let work = (capacity[j], data.per_unit[i]);
+            let setup = (capacity[j], data.setup_time[i]);
+            item_columns(&mut problem, data, &shares, (i, j), work, setup);
         }
     }
     let mut model = problem.optimise(Sense::Minimise);
@@ -226,22 +241,8 @@ fn master(data: &Data, columns: &[Column]) -> (f64, Vec<Vec<f64>>, Vec<Vec<f64>>
     let convexity: Vec<Row> = (0..periods).map(|_| problem.add_row(1.0..=1.0)).collect();
     for i in 0..n {
         for j in 0..periods {
-            for &(t, row) in &shares.share_rows[i][j] {
-                let d = data.demand[i][t];
-                let demand_row = shares.demand_rows[i][t].expect("a share row has demand");
-                let cost = data.holding[i] * d * (t - j) as f64;
-                problem.add_column(
-                    cost,
-                    0.0..=1.0,
-                    [(demand_row, 1.0), (row, 1.0), (x_link[j][i], d)],
-                );
-            }
-            let mut factors: Vec<(Row, f64)> = shares.share_rows[i][j]
-                .iter()
-                .map(|&(_, r)| (r, -1.0))
-                .collect();
-            factors.push((y_link[j][i], 1.0));
-            problem.add_column(data.setup[i], 0.0..=1.0, factors);
+            let (x, y) = ((x_link[j][i], 1.0), (y_link[j][i], 1.0));
+            item_columns(&mut problem, data, &shares, (i, j), x, y);
             // Artificials keep the master feasible before the columns can.
             for row in [x_link[j][i], y_link[j][i]] {
                 problem.add_column(ARTIFICIAL, 0.0.., [(row, 1.0)]);

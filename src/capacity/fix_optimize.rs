@@ -244,12 +244,16 @@ pub fn milp_start(
     .then_some(found.result.receipts)
 }
 
-/// The group's full MILP from the start `milp_start` finds: the search's
-/// time counts against the limit and in the result's seconds. The MILP
-/// keeps at least half a second (or the whole limit, if that is less).
+/// The group's full MILP from the start given in `options`, else the one
+/// `milp_start` finds: the search's time counts against the limit and in
+/// the result's seconds. The MILP keeps at least half a second (or the
+/// whole limit, if that is less).
 pub fn solve_from_start(scenario: &Scenario, group: &Group, options: &MilpOptions) -> MilpResult {
     let started = Instant::now();
-    let start = milp_start(scenario, group, options);
+    let start = match &options.start {
+        Some(start) => Some(start.clone()),
+        None => milp_start(scenario, group, options),
+    };
     let spent = started.elapsed().as_secs_f64();
     let limits = MilpOptions {
         start,

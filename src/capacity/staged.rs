@@ -73,8 +73,13 @@ pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions) -> MilpR
         judge: &judge,
         setups: &setups,
     };
+    // One start for both: the search's, and HiGHS's first incumbent.
     let start = fix_optimize::start_plan(scenario, group);
-    beside::race(&program, options, start, &|limits: &MilpOptions| {
+    let options = MilpOptions {
+        start: options.start.clone().or(start.clone()),
+        ..options.clone()
+    };
+    beside::race(&program, &options, start, &|limits: &MilpOptions| {
         solve_alone(scenario, group, limits)
     })
 }
@@ -85,7 +90,7 @@ fn solve_alone(scenario: &Scenario, group: &Group, options: &MilpOptions) -> Mil
         return fix_optimize::solve_from_start(scenario, group, options);
     }
     let program = |limits: &MilpOptions| {
-        if limits.start.is_none() && limits.fixed.is_none() {
+        if limits.fixed.is_none() {
             fix_optimize::solve_from_start(scenario, group, limits)
         } else {
             milp::solve(scenario, &group.items, limits)
