@@ -6,7 +6,7 @@ use serde::Serialize;
 use crate::capacity::milp::MilpOptions;
 use crate::eval::{evaluate, Evaluation};
 use crate::model::{Plan, Scenario};
-use crate::solve::{solve_exact, MethodResult};
+use crate::solve::{solve_exact, MethodResult, Status};
 
 /// One plain-language finding about an item of the proposal.
 #[derive(Debug, Clone, PartialEq, Serialize)]
@@ -20,9 +20,13 @@ pub struct Finding {
 #[derive(Debug, Clone)]
 pub struct CheckReport {
     pub evaluation: Evaluation,
-    /// The best plan lotwright finds; `None` when the scenario has no
-    /// feasible plan.
+    /// The best plan lotwright finds; `None` when it found none (see
+    /// `best_status`).
     pub best: Option<MethodResult>,
+    /// What the search for the best plan proved: `Infeasible` when the
+    /// scenario has no feasible plan, `Unknown` when the time limit ran out
+    /// before a plan was found (which says nothing about the scenario).
+    pub best_status: Status,
     pub findings: Vec<Finding>,
 }
 
@@ -38,6 +42,12 @@ impl CheckReport {
 pub fn check(scenario: &Scenario, proposal: &Plan, options: &MilpOptions) -> CheckReport {
     let evaluation = evaluate(scenario, proposal);
     let best = solve_exact(scenario, options);
+    let best_status = match best.status {
+        // A plan shown for an unproven search may break a constraint; only
+        // a feasible one is a best plan to compare with.
+        Status::Optimal | Status::Feasible if !best.evaluation.feasible => Status::Unknown,
+        status => status,
+    };
     let best = best.evaluation.feasible.then_some(best);
     let mut findings = Vec::new();
     if let Some(best) = &best {
@@ -92,6 +102,7 @@ pub fn check(scenario: &Scenario, proposal: &Plan, options: &MilpOptions) -> Che
     CheckReport {
         evaluation,
         best,
+        best_status,
         findings,
     }
 }

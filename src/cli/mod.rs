@@ -424,7 +424,9 @@ fn check(args: CheckArgs) -> Result<i32> {
     } else {
         emit(&report::table::check(&scenario, &report))?;
     }
-    Ok(if args.strict && !report.evaluation.feasible {
+    Ok(if report.best_status == Status::Unknown {
+        4
+    } else if args.strict && !report.evaluation.feasible {
         1
     } else {
         0

@@ -235,7 +235,7 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> Value {
         "costs": costs(&evaluation.costs),
         "setups": evaluation.setups,
         "best_cost": report.best.as_ref().map(|b| clean(b.total_cost())),
-        "best_status": report.best.as_ref().map(|b| b.status.name()),
+        "best_status": report.best_status.name(),
         "saving": report.saving().map(clean),
         "findings": report.findings,
         "pegging": pegging(scenario, &pegged),

@@ -568,8 +568,15 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> String {
                 status_words(best),
             );
         }
-        None => {
+        None if report.best_status == Status::Infeasible => {
             let _ = writeln!(out, "The scenario itself has no feasible plan.");
+        }
+        None => {
+            let _ = writeln!(
+                out,
+                "No best plan to compare with: the time limit ran out before a plan was found.\n\
+                 That says nothing about whether the scenario has one; give more time with --time-limit."
+            );
         }
     }
     faults(scenario, evaluation, &mut out);
