@@ -275,6 +275,51 @@ fn is_multiple(quantity: f64, multiple: f64, tolerance: f64) -> bool {
     (ratio - ratio.round()).abs() * multiple <= tolerance
 }
 
+/// The cost no feasible plan of `scenario` can avoid: firm orders' setup
+/// and unit cost, and each item's least unit cost on the units it must still
+/// make or buy (its requirement, its parents' included, less stock, open
+/// receipts and firm orders). Every cost is 0 or more, so this is a lower
+/// bound on any feasible plan's total; what lies above it is the cost the
+/// plan controls, on which gaps and savings are stated.
+pub fn unavoidable_cost(scenario: &Scenario) -> f64 {
+    let mut required = vec![0.0; scenario.items.len()];
+    let mut cost = 0.0;
+    let order: Vec<usize> = if scenario.has_bom() {
+        scenario.level_order()
+    } else {
+        (0..scenario.items.len()).collect()
+    };
+    for &i in &order {
+        let item = &scenario.items[i];
+        // Parents come first: what they must release, firm orders included.
+        let dependent: f64 = scenario
+            .bom
+            .iter()
+            .filter(|line| line.component == i)
+            .map(|line| line.per_parent_unit() * required[line.parent])
+            .sum();
+        let firm: f64 = item.firm.iter().sum();
+        let supply = item.initial_stock + item.receipts.iter().sum::<f64>() + firm;
+        let demand: f64 = item.demand.iter().sum::<f64>() + dependent;
+        let to_make = (demand - supply).max(0.0);
+        let cheapest = item.unit_cost.iter().copied().fold(f64::INFINITY, f64::min);
+        let cheapest = if cheapest.is_finite() {
+            cheapest.max(0.0)
+        } else {
+            0.0
+        };
+        cost += cheapest * to_make;
+        for (t, &q) in item.firm.iter().enumerate() {
+            if q > 0.0 {
+                let release = t.saturating_sub(item.lead_time);
+                cost += item.setup_cost[release] + item.unit_cost[release] * q;
+            }
+        }
+        required[i] = to_make + firm;
+    }
+    cost
+}
+
 /// Evaluates `plan` against `scenario`.
 pub fn evaluate(scenario: &Scenario, plan: &Plan) -> Evaluation {
     let periods = scenario.periods();

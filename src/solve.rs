@@ -99,6 +99,21 @@ impl MethodResult {
         }
         Some(((cost - bound) / cost.abs()).max(0.0))
     }
+
+    /// The gap on the cost the plan controls: (total cost - lower bound)
+    /// over (total cost - `unavoidable`), where `unavoidable` is the cost no
+    /// feasible plan avoids (`eval::unavoidable_cost`). A total that is
+    /// mostly unit cost makes `gap` look small; this one says how far the
+    /// setups, holding, backlog and overtime may be from their best.
+    pub fn controllable_gap(&self, unavoidable: f64) -> Option<f64> {
+        let bound = self.lower_bound?.max(unavoidable);
+        let cost = self.total_cost();
+        let controllable = cost - unavoidable;
+        if controllable <= 1e-9 * (1.0 + cost.abs()) {
+            return Some(0.0);
+        }
+        Some(((cost - bound) / controllable).clamp(0.0, 1.0))
+    }
 }
 
 /// What the planner asked for.
@@ -779,6 +794,17 @@ fn group_name(component: &Component) -> String {
     }
 }
 
+/// Where an unproven MILP stopped, in words: a time limit (a run that may
+/// not repeat), the node limit or the gap asked for.
+fn stop_words(hit_time_limit: bool, options: &MilpOptions) -> &'static str {
+    match (hit_time_limit, options.nodes, options.gap) {
+        (true, _, _) => "at the time limit (a run cut short by time may give another plan the next time; --nodes N stops at the same point on every run)",
+        (false, Some(_), None) => "at the node limit",
+        (false, Some(_), Some(_)) => "at the node limit or the gap asked for",
+        (false, None, _) => "at the gap asked for",
+    }
+}
+
 /// The options with the time limit cut to what is left of the budget.
 fn remaining(options: &MilpOptions, started: std::time::Instant) -> MilpOptions {
     let left = options.time_limit - started.elapsed().as_secs_f64();
@@ -815,7 +841,7 @@ fn take_milp(
                 notes.push(format!(
                     "{}: the solver stopped {} before proving optimality; the plan is feasible, with its lower bound in the gap",
                     names,
-                    if result.hit_time_limit { "at the time limit" } else { "at the gap asked for" }
+                    stop_words(result.hit_time_limit, options)
                 ));
             }
         }

@@ -66,6 +66,14 @@ pub struct MilpOptions {
     /// tuning experiments: `true`/`false`, whole numbers and decimals are
     /// passed as such, anything else as text.
     pub highs_options: Vec<(String, String)>,
+    /// HiGHS's random seed (its search breaks ties with it).
+    pub seed: u32,
+    /// Branch-and-bound nodes each MILP may explore: a limit of work that,
+    /// unlike the time limit, stops at the same point on every run, so that
+    /// a plan cut short repeats for the same seed and threads. It also
+    /// keeps the search beside the MILP (`beside`) out, whose result
+    /// depends on timing.
+    pub nodes: Option<u64>,
 }
 
 impl Default for MilpOptions {
@@ -85,9 +93,14 @@ impl Default for MilpOptions {
             solver: super::GroupSolver::Auto,
             interrupt: None,
             highs_options: Vec::new(),
+            seed: DEFAULT_SEED,
+            nodes: None,
         }
     }
 }
+
+/// HiGHS's random seed unless the planner gives one.
+pub const DEFAULT_SEED: u32 = 1;
 
 /// The time limit of a solve unless the planner sets one, in seconds.
 pub const DEFAULT_TIME_LIMIT: f64 = 60.0;
@@ -466,7 +479,10 @@ pub(crate) fn configure(model: &mut highs::Model, options: &MilpOptions, abs_gap
     model.set_option("time_limit", options.time_limit.max(0.01));
     model.set_option("mip_rel_gap", options.gap.unwrap_or(OPTIMALITY_GAP * 0.99));
     model.set_option("mip_abs_gap", abs_gap);
-    model.set_option("random_seed", 1);
+    model.set_option("random_seed", options.seed.min(i32::MAX as u32) as i32);
+    if let Some(nodes) = options.nodes {
+        model.set_option("mip_max_nodes", nodes.min(i32::MAX as u64) as i32);
+    }
     if let Some(threads) = options.threads {
         model.set_option("threads", threads as i32);
     }

@@ -11,6 +11,7 @@ pub mod milp;
 pub mod single_dp;
 mod smoothing;
 pub mod staged;
+pub(crate) mod tidy;
 
 use crate::model::Scenario;
 

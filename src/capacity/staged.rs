@@ -30,8 +30,8 @@ use super::beside;
 use super::fix_optimize;
 use super::milp::{self, MilpOptions, MilpResult, MilpStatus};
 use super::Group;
-use crate::eval::{evaluate, quantity_tolerance};
-use crate::model::{Plan, Scenario};
+use crate::eval::quantity_tolerance;
+use crate::model::Scenario;
 
 /// Share of the time limit kept back from stage 1 for stage 2 (a small
 /// program with every setup fixed). Stage 3 runs only when stage 1 was
@@ -54,16 +54,13 @@ pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions) -> MilpR
     if options.relax || options.extra_capacity || group.items.len() < 2 {
         return solve_alone(scenario, group, options);
     }
+    // A node limit asks for a run that repeats: the search beside the MILP
+    // stops when the MILP does, at a moment that varies, so it stays out.
+    if options.nodes.is_some() {
+        return tidied(scenario, group, solve_alone(scenario, group, options));
+    }
     let subset = scenario.subset(&group.items);
-    let judge = |receipts: &[Vec<f64>]| {
-        let evaluation = evaluate(
-            &subset,
-            &Plan {
-                receipts: receipts.to_vec(),
-            },
-        );
-        evaluation.feasible.then(|| evaluation.total_cost())
-    };
+    let judge = |receipts: &[Vec<f64>]| super::tidy::feasible_cost(&subset, receipts);
     let setups = |receipts: &[Vec<f64>]| setup_pattern(scenario, &group.items, receipts);
     let sub = |limits: &MilpOptions| milp::solve(scenario, &group.items, limits);
     let program = beside::Program {
@@ -79,9 +76,24 @@ pub fn solve(scenario: &Scenario, group: &Group, options: &MilpOptions) -> MilpR
         start: options.start.clone().or(start.clone()),
         ..options.clone()
     };
-    beside::race(&program, &options, start, &|limits: &MilpOptions| {
+    let result = beside::race(&program, &options, start, &|limits: &MilpOptions| {
         solve_alone(scenario, group, limits)
-    })
+    });
+    tidied(scenario, group, result)
+}
+
+/// A plan that is not proven, with orders that do not pay for their setup
+/// merged away (`tidy`).
+fn tidied(scenario: &Scenario, group: &Group, mut result: MilpResult) -> MilpResult {
+    if result.status != MilpStatus::Feasible {
+        return result;
+    }
+    let subset = scenario.subset(&group.items);
+    let judge = |receipts: &[Vec<f64>]| super::tidy::feasible_cost(&subset, receipts);
+    if let Some(cost) = super::tidy::tidy(&mut result.receipts, &judge) {
+        result.objective = cost;
+    }
+    result
 }
 
 /// The MILP alone, in stages where the items have lot counts.

@@ -130,6 +130,15 @@ struct Limits {
     /// fix-and-optimize). Heuristics report a proven lower bound and gap.
     #[arg(long, value_name = "NAME", default_value = "auto")]
     solver: String,
+    /// The solver's random seed (default 1). Runs with the same seed,
+    /// threads and --nodes give the same plan.
+    #[arg(long, value_name = "N")]
+    seed: Option<u32>,
+    /// Stop each MILP after N branch-and-bound nodes: a limit of work that
+    /// stops at the same point on every run, where a run cut short by
+    /// --time-limit may differ from the next. The time limit still applies.
+    #[arg(long, value_name = "N")]
+    nodes: Option<u64>,
 }
 
 use lotwright::capacity::GroupSolver;
@@ -158,6 +167,15 @@ impl Limits {
                 return Err(Error::usage("--threads must be at least 1"));
             }
             options.threads = Some(threads);
+        }
+        if let Some(seed) = self.seed {
+            options.seed = seed;
+        }
+        if let Some(nodes) = self.nodes {
+            if nodes == 0 {
+                return Err(Error::usage("--nodes must be at least 1"));
+            }
+            options.nodes = Some(nodes);
         }
         options.solver = GroupSolver::parse(&self.solver).ok_or_else(|| {
             Error::usage(format!(
@@ -526,6 +544,8 @@ fn roll_command(args: RollArgs) -> Result<i32> {
         gap: None,
         threads: args.threads,
         solver: "auto".into(),
+        seed: None,
+        nodes: None,
     };
     let milp = limits.milp()?;
     if args.horizon == 0 {

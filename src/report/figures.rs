@@ -6,7 +6,8 @@
 //! and the spreadsheet state the same numbers. They read the evaluation's
 //! costs and never cost a plan themselves; they belong in `eval` in time.
 
-use crate::eval::{ItemRecord, ResourceLoad};
+use crate::eval::{unavoidable_cost, ItemRecord, ResourceLoad};
+use crate::model::Scenario;
 use crate::solve::{MethodResult, Outcome, Status};
 
 /// The rule the optimal plan is measured against, and what it saves.
@@ -24,13 +25,16 @@ pub struct Saving<'a> {
     pub amount: f64,
     /// `amount` over the reference cost; `None` when that cost is 0.
     pub fraction: Option<f64>,
+    /// `amount` over the part of the reference cost a plan controls (its
+    /// total less the unavoidable cost); `None` when that part is 0.
+    pub controllable_fraction: Option<f64>,
     /// `amount` less the difference in ending stock value (at unit cost):
     /// the saving when stock left at the end counts at what it is worth.
     pub net_of_ending_stock: f64,
 }
 
 /// The saving of the optimal plan, when both it and a rule were run.
-pub fn saving(outcome: &Outcome) -> Option<Saving<'_>> {
+pub fn saving<'a>(scenario: &Scenario, outcome: &'a Outcome) -> Option<Saving<'a>> {
     let optimal = outcome.comparison.iter().find(|r| r.is_exact())?;
     let rules = || outcome.comparison.iter().filter(|r| r.is_rule());
     let fixed = rules().find(|r| r.method == "fixed-lot");
@@ -43,6 +47,8 @@ pub fn saving(outcome: &Outcome) -> Option<Saving<'_>> {
     let reference = fixed.or_else(cheapest)?;
     let amount = reference.total_cost() - optimal.total_cost();
     let fraction = (reference.total_cost().abs() > 1e-9).then(|| amount / reference.total_cost());
+    let controllable = reference.total_cost() - unavoidable_cost(scenario);
+    let controllable_fraction = (controllable > 1e-9).then(|| amount / controllable);
     let ending =
         reference.evaluation.ending_stock_value() - optimal.evaluation.ending_stock_value();
     Some(Saving {
@@ -51,8 +57,41 @@ pub fn saving(outcome: &Outcome) -> Option<Saving<'_>> {
         reference_is_current_rule: fixed.is_some(),
         amount,
         fraction,
+        controllable_fraction,
         net_of_ending_stock: amount - ending,
     })
+}
+
+/// The gap of `result` on the cost its plan controls (see
+/// `MethodResult::controllable_gap`).
+pub fn controllable_gap(scenario: &Scenario, result: &MethodResult) -> Option<f64> {
+    result.controllable_gap(unavoidable_cost(scenario))
+}
+
+/// How far a plan that is not proven may lie above the best possible, in
+/// words, on the cost the plan controls with the total beside it: "no plan
+/// can cost less than B (the lower bound), so this plan costs at most X
+/// above the least possible cost: G % of the C it controls, g % of its
+/// total". `money` formats an amount. `None` without a bound.
+pub fn gap_words(
+    scenario: &Scenario,
+    result: &MethodResult,
+    money: impl Fn(f64) -> String,
+) -> Option<String> {
+    let bound = result.lower_bound?;
+    let gap = result.gap()?;
+    let unavoidable = unavoidable_cost(scenario);
+    let controlled = result.controllable_gap(unavoidable)?;
+    let above = (result.total_cost() - bound.max(unavoidable)).max(0.0);
+    Some(format!(
+        "no plan can cost less than {} (the lower bound), so this plan costs at most {} above the least possible cost: {:.2} % of the {} it controls (setups, holding, backlog, overtime and unit cost beyond the {} no plan avoids), {:.2} % of its total",
+        money(bound),
+        money(above),
+        100.0 * controlled,
+        money(result.total_cost() - unavoidable),
+        money(unavoidable),
+        100.0 * gap
+    ))
 }
 
 /// A status in words: `proven optimal` only when it is. `exact` is true for

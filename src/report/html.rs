@@ -125,7 +125,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> String {
         &format!("total cost{unit}"),
         &money(chosen.total_cost()),
     );
-    if let Some(s) = figures::saving(outcome).filter(|_| chosen.is_exact()) {
+    if let Some(s) = figures::saving(scenario, outcome).filter(|_| chosen.is_exact()) {
         let label = format!("saving against {}{unit}", s.reference.method);
         card(&mut out, &label, &money(s.amount));
         if (s.net_of_ending_stock - s.amount).abs() > 0.5 {
@@ -216,9 +216,16 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
     let currency = a.scenario.currency.as_deref();
     let cash = Cash(currency.filter(|c| b.scenario.currency.as_deref() == Some(c)));
     let difference = eb.total_cost() - ea.total_cost();
-    let share = if ea.total_cost().abs() > 1e-9 {
+    let controllable = ea.total_cost() - crate::eval::unavoidable_cost(&a.scenario);
+    let share = if controllable > 1e-9 && ea.total_cost().abs() > 1e-9 {
         format!(
-            " ({})",
+            " ({} of the cost A's plan controls, {} of A's total)",
+            percent(difference.abs() / controllable, 1),
+            percent(difference.abs() / ea.total_cost().abs(), 1)
+        )
+    } else if ea.total_cost().abs() > 1e-9 {
+        format!(
+            " ({} of A's total)",
             percent(difference.abs() / ea.total_cost().abs(), 1)
         )
     } else {
@@ -235,10 +242,15 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
     let _ = write!(out, "<p class=\"lead\">{}</p>", escape(&lead));
     for (label, side) in [("A", a), ("B", b)] {
         let status = figures::status_phrase(side.result.status, side.result.is_exact());
-        let bound = match (side.result.status, side.result.gap()) {
-            (crate::solve::Status::Feasible, Some(gap)) => format!(
-                ", lower bound {}, gap {}",
+        let gaps = (
+            figures::controllable_gap(&side.scenario, &side.result),
+            side.result.gap(),
+        );
+        let bound = match (side.result.status, gaps) {
+            (crate::solve::Status::Feasible, (Some(controlled), Some(gap))) => format!(
+                ", lower bound {}, gap {} of the cost the plan controls ({} of the total)",
                 money(side.result.lower_bound.unwrap_or(0.0)),
+                percent(controlled, 2),
                 percent(gap, 2)
             ),
             _ => String::new(),

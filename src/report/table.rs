@@ -106,19 +106,11 @@ impl Grid {
     }
 }
 
-fn status_words(result: &MethodResult) -> String {
+fn status_words(scenario: &Scenario, result: &MethodResult) -> String {
     match result.status {
         Status::Optimal => "proven optimal".to_string(),
-        Status::Feasible => match result.gap() {
-            Some(gap) => {
-                let bound = result.lower_bound.unwrap_or(0.0);
-                format!(
-                    "feasible, not proven optimal: no plan can cost less than {} (the lower bound), so this plan costs at most {} ({:.2} %) above the least possible cost",
-                    money(bound),
-                    money((result.total_cost() - bound).max(0.0)),
-                    100.0 * gap
-                )
-            }
+        Status::Feasible => match super::figures::gap_words(scenario, result, money) {
+            Some(words) => format!("feasible, not proven optimal: {words}"),
             None => "feasible".to_string(),
         },
         Status::Infeasible => super::figures::status_phrase(result.status, result.is_exact()),
@@ -171,7 +163,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
     };
     let headline = format!(
         "Plan: {} ({source}). {}.",
-        status_words(chosen),
+        status_words(scenario, chosen),
         if chosen.status == Status::Infeasible && chosen.is_exact() {
             format!("The orders shown (lot-for-lot where no plan exists) break a constraint as well; their cost would be {cost}")
         } else if chosen.status == Status::Infeasible {
@@ -565,7 +557,7 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> String {
                 out,
                 "Best plan: {} ({}); {against}.",
                 money(best.total_cost()),
-                status_words(best),
+                status_words(scenario, best),
             );
         }
         None if report.best_status == Status::Infeasible => {
@@ -643,7 +635,11 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
         );
     }
     for (label, side) in [("A", a), ("B", b)] {
-        let _ = writeln!(out, "{label}: {}", status_words(&side.result));
+        wrap(
+            &format!("{label}: {}", status_words(&side.scenario, &side.result)),
+            "  ",
+            &mut out,
+        );
         for note in &side.result.notes {
             wrap(&format!("Note: {note}"), "  ", &mut out);
         }

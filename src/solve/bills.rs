@@ -3,7 +3,7 @@
 //! after the exact method applied level by level), as results with their
 //! notes. The programs themselves live in `multilevel`.
 
-use crate::eval::evaluate;
+use crate::eval::{evaluate, Evaluation};
 use crate::model::{Plan, Scenario};
 use crate::multilevel::{fix_optimize, joint, milp, releases, EXACT_BY_LEVEL, LARGE_BILL};
 use crate::solve::{MethodResult, Status};
@@ -220,6 +220,11 @@ pub(crate) fn solve_exact(
                 );
                 incumbent.clone()
             };
+            let (plan, evaluation) = if joint.status == MilpStatus::Optimal {
+                (plan, evaluation)
+            } else {
+                tidied(scenario, plan, evaluation)
+            };
             let cost = evaluation.total_cost();
             let bound = joint.lower_bound.min(cost);
             let proven = joint.status == MilpStatus::Optimal
@@ -250,6 +255,18 @@ pub(crate) fn solve_exact(
         result.gap(),
     );
     (result, staged)
+}
+
+/// An unproven plan with orders that do not pay for their setup merged
+/// away (`capacity::tidy`), evaluated again.
+fn tidied(scenario: &Scenario, mut plan: Plan, evaluation: Evaluation) -> (Plan, Evaluation) {
+    use crate::capacity::tidy::{feasible_cost, tidy};
+    let judge = |receipts: &[Vec<f64>]| feasible_cost(scenario, receipts);
+    if tidy(&mut plan.receipts, &judge).is_none() {
+        return (plan, evaluation);
+    }
+    let evaluation = evaluate(scenario, &plan);
+    (plan, evaluation)
 }
 
 /// A large bill: fix-and-optimize across the levels from the feasible

@@ -54,7 +54,7 @@ pub(super) fn faults_in_words(evaluation: &Evaluation) -> String {
 }
 
 /// The status of the plan shown, stated as what is proven.
-fn status_sentence(chosen: &MethodResult, cash: &Cash) -> String {
+fn status_sentence(scenario: &Scenario, chosen: &MethodResult, cash: &Cash) -> String {
     if !chosen.is_exact() {
         return if chosen.evaluation.feasible {
             format!(
@@ -73,13 +73,11 @@ fn status_sentence(chosen: &MethodResult, cash: &Cash) -> String {
         Status::Optimal => {
             "Status: proven optimal. No plan that meets every constraint costs less.".into()
         }
-        Status::Feasible => match (chosen.lower_bound, chosen.gap()) {
-            (Some(bound), Some(gap)) => format!(
-                "Status: feasible, not proven optimal. The solver stopped before it could prove optimality; no plan can cost less than {} (the lower bound), so this plan is at most {} above the best possible.",
-                cash.of(bound),
-                percent(gap, 2)
+        Status::Feasible => match figures::gap_words(scenario, chosen, |x| cash.of(x)) {
+            Some(words) => format!(
+                "Status: feasible, not proven optimal. The solver stopped before it could prove optimality; {words}."
             ),
-            _ => "Status: feasible, not proven optimal.".into(),
+            None => "Status: feasible, not proven optimal.".into(),
         },
         Status::Infeasible => "Status: infeasible. No plan meets every constraint; the plan shown is lot-for-lot, for reference only. The notes below say what stands in the way.".into(),
         Status::Unknown => "Status: unknown. The time limit ran out before the solver found a plan; the plan shown is lot-for-lot and may overload capacity.".into(),
@@ -97,7 +95,7 @@ pub(super) fn summary_sentences(scenario: &Scenario, outcome: &Outcome) -> Vec<S
     } else {
         ("The best plan found", "the best plan found")
     };
-    let saving = figures::saving(outcome).filter(|_| chosen.is_exact());
+    let saving = figures::saving(scenario, outcome).filter(|_| chosen.is_exact());
     match saving {
         Some(s) => {
             let reference = s.reference;
@@ -106,10 +104,15 @@ pub(super) fn summary_sentences(scenario: &Scenario, outcome: &Outcome) -> Vec<S
             } else {
                 format!("the cheapest lot rule, {}", reference.method)
             };
-            let share = s
-                .fraction
-                .map(|f| format!(" ({})", percent(f.abs(), 1)))
-                .unwrap_or_default();
+            let share = match (s.controllable_fraction, s.fraction) {
+                (Some(c), Some(f)) => format!(
+                    " ({} of the cost a plan controls, {} of the total)",
+                    percent(c.abs(), 1),
+                    percent(f.abs(), 1)
+                ),
+                (None, Some(f)) => format!(" ({} of the total)", percent(f.abs(), 1)),
+                _ => String::new(),
+            };
             let cost = cash.of(chosen.total_cost());
             sentences.push(if s.amount > 0.005 {
                 format!(
@@ -161,6 +164,6 @@ pub(super) fn summary_sentences(scenario: &Scenario, outcome: &Outcome) -> Vec<S
             cash.of(chosen.total_cost())
         )),
     }
-    sentences.push(status_sentence(chosen, &cash));
+    sentences.push(status_sentence(scenario, chosen, &cash));
     sentences
 }

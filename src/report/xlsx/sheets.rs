@@ -45,9 +45,19 @@ pub(super) fn summary(
     if let Some(bound) = chosen.lower_bound {
         lines.push((format!("Lower bound{money}"), Cell::Money(bound)));
     }
-    if let Some(gap) = chosen.gap() {
-        lines.push(("Gap to the lower bound".into(), Cell::FinePercent(gap)));
+    if let Some(gap) = figures::controllable_gap(scenario, chosen) {
+        lines.push((
+            "Gap on the cost the plan controls".into(),
+            Cell::FinePercent(gap),
+        ));
     }
+    if let Some(gap) = chosen.gap() {
+        lines.push(("Gap on the total cost".into(), Cell::FinePercent(gap)));
+    }
+    lines.push((
+        format!("Cost no plan avoids{money}"),
+        Cell::Money(crate::eval::unavoidable_cost(scenario)),
+    ));
     let c = &evaluation.costs;
     for (kind, value) in [
         ("Setup cost", c.setup),
@@ -67,7 +77,7 @@ pub(super) fn summary(
         format!("Ending stock value{money}"),
         Cell::Money(evaluation.ending_stock_value()),
     ));
-    if let Some(saving) = figures::saving(outcome) {
+    if let Some(saving) = figures::saving(scenario, outcome) {
         let reference = saving.reference;
         lines.push((
             "Compared with".into(),
@@ -90,8 +100,17 @@ pub(super) fn summary(
             Cell::Text(yes_no(reference.evaluation.feasible).into()),
         ));
         lines.push((format!("Saving{money}"), Cell::Money(saving.amount)));
+        if let Some(fraction) = saving.controllable_fraction {
+            lines.push((
+                "Saving (share of the cost a plan controls)".into(),
+                Cell::Percent(fraction),
+            ));
+        }
         if let Some(fraction) = saving.fraction {
-            lines.push(("Saving (share of its cost)".into(), Cell::Percent(fraction)));
+            lines.push((
+                "Saving (share of its total cost)".into(),
+                Cell::Percent(fraction),
+            ));
         }
         lines.push((
             format!("Its ending stock value{money}"),
