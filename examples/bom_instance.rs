@@ -187,6 +187,7 @@ fn main() {
                 capacity: vec![capacity; weeks],
                 overtime_capacity: vec![0.0; weeks],
                 overtime_cost: 0.0,
+                capacity_cost: None,
             });
             writeln!(resources_csv, "R{r},{capacity}").expect("a string");
             for routing in scenario.routings.iter_mut().filter(|x| x.resource == r) {

@@ -6,7 +6,7 @@
 
 use crate::error::{Error, Result};
 use crate::model::Scenario;
-use crate::solve::MethodResult;
+use crate::solve::{MethodResult, Status};
 
 /// What an override changes.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -254,7 +254,79 @@ impl Row<ItemFigures> {
     }
 }
 
+/// Regular capacity B has beyond A's on a resource both sides have, summed
+/// over the buckets where B's is higher, with the price of a unit of it
+/// where resources.csv gives one (`capacity_cost`, B's else A's).
+#[derive(Debug, Clone, PartialEq)]
+pub struct AddedCapacity {
+    pub resource: String,
+    pub added: f64,
+    pub price: Option<f64>,
+}
+
+impl AddedCapacity {
+    /// What the added capacity costs at its price.
+    pub fn cost(&self) -> Option<f64> {
+        self.price.map(|p| p * self.added)
+    }
+}
+
 impl Comparison {
+    /// The range in which B's least possible cost less A's lies, from the
+    /// plans and the proven lower bounds of both sides: [B's bound - A's
+    /// cost, B's cost - A's bound]. `None` unless both sides have a plan
+    /// with a bound (a proven plan is its own bound).
+    pub fn difference_range(&self) -> Option<(f64, f64)> {
+        let known = |r: &MethodResult| -> Option<(f64, f64)> {
+            if !r.evaluation.feasible {
+                return None;
+            }
+            match r.status {
+                Status::Optimal => Some((r.total_cost(), r.total_cost())),
+                Status::Feasible => r
+                    .lower_bound
+                    .map(|b| (b.min(r.total_cost()), r.total_cost())),
+                _ => None,
+            }
+        };
+        let (a_bound, a_cost) = known(&self.a.result)?;
+        let (b_bound, b_cost) = known(&self.b.result)?;
+        Some((b_bound - a_cost, b_cost - a_bound))
+    }
+
+    /// True when the gaps of the two solves leave open which scenario can
+    /// be planned for less: the difference range holds both signs.
+    pub fn within_gaps(&self) -> bool {
+        let scale = 1e-9 * (1.0 + self.a.result.total_cost().abs());
+        self.difference_range()
+            .is_some_and(|(low, high)| low < -scale && high > scale)
+    }
+
+    /// The regular capacity B adds over A, resource by resource (only
+    /// resources where it adds any).
+    pub fn added_capacity(&self) -> Vec<AddedCapacity> {
+        let mut added = Vec::new();
+        for rb in &self.b.scenario.resources {
+            let Some(ra) = self.a.scenario.resources.iter().find(|r| r.id == rb.id) else {
+                continue;
+            };
+            let more: f64 = rb
+                .capacity
+                .iter()
+                .zip(&ra.capacity)
+                .map(|(b, a)| (b - a).max(0.0))
+                .sum();
+            if more > 1e-9 {
+                added.push(AddedCapacity {
+                    resource: rb.id.clone(),
+                    added: more,
+                    price: rb.capacity_cost.or(ra.capacity_cost),
+                });
+            }
+        }
+        added
+    }
+
     /// The items, the largest change in cost first.
     pub fn items_by_change(&self) -> Vec<&Row<ItemFigures>> {
         let mut items: Vec<&Row<ItemFigures>> = self.items.iter().collect();

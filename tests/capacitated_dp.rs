@@ -57,6 +57,7 @@ fn scenario(
             capacity: vec![capacity; periods],
             overtime_capacity: vec![overtime; periods],
             overtime_cost: 3.0,
+            capacity_cost: None,
         }],
         routings: vec![Routing {
             item: 0,

@@ -34,6 +34,7 @@ fn one_item_on_one_resource(
             capacity: capacity.to_vec(),
             overtime_capacity: overtime.to_vec(),
             overtime_cost,
+            capacity_cost: None,
         }],
         routings: vec![Routing {
             item: 0,

@@ -109,6 +109,7 @@ fn routed(it: Item, capacity: f64) -> Scenario {
         capacity: vec![capacity; periods],
         overtime_capacity: vec![0.0; periods],
         overtime_cost: 0.0,
+        capacity_cost: None,
     }];
     s.routings = vec![Routing {
         item: 0,

@@ -173,7 +173,7 @@ mod controllable {
 
     use super::super_common::calendar;
 
-    fn scenario() -> Scenario {
+    pub fn scenario() -> Scenario {
         let mut kit = Item::simple("KIT", &[10.0, 20.0, 0.0], 50.0, 1.0);
         kit.initial_stock = 5.0;
         kit.unit_cost = vec![4.0, 3.0, 4.0];
@@ -235,6 +235,122 @@ mod controllable {
         let share = saving.controllable_fraction.unwrap();
         assert!((share - 46.0 / 161.0).abs() < 1e-12, "{share}");
         assert!((saving.fraction.unwrap() - 46.0 / 276.0).abs() < 1e-12);
+    }
+}
+
+use controllable::scenario as controllable_case;
+
+mod compare_words {
+    //! What compare says when the gaps leave open which side costs less,
+    //! and the price of the capacity B adds: worked by hand.
+
+    use lotwright::compare::{Comparison, Side};
+    use lotwright::report::notes::compare_sentences;
+    use lotwright::solve::{plan_scenario, Options, Status};
+
+    use super::controllable_case;
+
+    fn money(x: f64) -> String {
+        format!("{x:.2}")
+    }
+
+    /// A: the hand-worked case's best plan (230) with its proof withdrawn
+    /// and a bound of 200; B: the fixed-lot plan (276) with a bound of 220.
+    /// B's least cost less A's lies in [220 - 230, 276 - 200] = [-10, 76]:
+    /// not settled. With A proven (230) and B the same proven plan, the
+    /// range is [0, 0]: settled.
+    #[test]
+    fn a_difference_within_the_gaps_is_called_unsettled() {
+        let scenario = controllable_case();
+        let outcome = plan_scenario(&scenario, &Options::default()).expect("plans");
+        let best = outcome.chosen.clone();
+        let fixed = outcome
+            .comparison
+            .iter()
+            .find(|r| r.method == "fixed-lot")
+            .unwrap()
+            .clone();
+        let side = |result: lotwright::solve::MethodResult| Side {
+            name: "x".into(),
+            scenario: scenario.clone(),
+            result,
+        };
+        let mut a = best.clone();
+        a.status = Status::Feasible;
+        a.lower_bound = Some(200.0);
+        let mut b = fixed;
+        b.status = Status::Feasible;
+        b.lower_bound = Some(220.0);
+        let open = Comparison::new(side(a), side(b));
+        assert_eq!(open.difference_range(), Some((-10.0, 76.0)));
+        assert!(open.within_gaps());
+        let words = compare_sentences(&open, money).join(" ");
+        assert!(words.contains("is not proven"), "{words}");
+        assert!(words.contains("from 10.00 less to 76.00 more"), "{words}");
+
+        let settled = Comparison::new(side(best.clone()), side(best));
+        assert_eq!(settled.difference_range(), Some((0.0, 0.0)));
+        assert!(!settled.within_gaps());
+        assert!(!compare_sentences(&settled, money)
+            .join(" ")
+            .contains("is not proven"));
+    }
+
+    /// The demo's press gets 10 % more capacity at 0.80 a unit: 10 weeks of
+    /// 4,500 and 3 of 3,600 (demo-data/harbor-bakeware, capacity.csv) make
+    /// 55,800 over the horizon, so B adds 5,580 at 4,464.00.
+    #[test]
+    fn added_capacity_is_priced_where_resources_csv_gives_a_price() {
+        let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR"));
+        let a = lotwright::input::read_scenario(&root.join("demo-data/harbor-bakeware"))
+            .expect("reads");
+        let mut b = a.clone();
+        let press = b.resources.iter_mut().find(|r| r.id == "PRESS-1").unwrap();
+        press.capacity_cost = Some(0.8);
+        for c in press.capacity.iter_mut() {
+            *c *= 1.1;
+        }
+        let rule = |s: &lotwright::model::Scenario| {
+            lotwright::solve::run_rule(s, lotwright::single::rules::Rule::LotForLot)
+        };
+        let (ra, rb) = (rule(&a), rule(&b));
+        let c = Comparison::new(
+            Side {
+                name: "A".into(),
+                scenario: a,
+                result: ra,
+            },
+            Side {
+                name: "B".into(),
+                scenario: b,
+                result: rb,
+            },
+        );
+        let added = c.added_capacity();
+        assert_eq!(added.len(), 1);
+        assert_eq!(added[0].resource, "PRESS-1");
+        assert!((added[0].added - 5580.0).abs() < 1e-6, "{:?}", added[0]);
+        assert!((added[0].cost().unwrap() - 4464.0).abs() < 1e-6);
+        let words = compare_sentences(&c, money).join(" ");
+        assert!(words.contains("at 0.80 a unit"), "{words}");
+        assert!(words.contains("costs 4464.00"), "{words}");
+
+        // compare.html names the side each caution is about.
+        let page = lotwright::report::html::compare(&c);
+        let start = page
+            .find("<section class=\"cautions\">")
+            .expect("lot-for-lot on the demo carries cautions");
+        let end = start + page[start..].find("</section>").unwrap();
+        let cautions: Vec<&str> = page[start..end].split("<p>").skip(1).collect();
+        assert!(!cautions.is_empty());
+        for caution in cautions {
+            assert!(
+                ["A: ", "B: ", "A and B: "]
+                    .iter()
+                    .any(|label| caution.starts_with(label)),
+                "{caution}"
+            );
+        }
     }
 }
 

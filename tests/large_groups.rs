@@ -56,6 +56,7 @@ fn group(demand: Vec<Vec<u32>>, costs: Vec<(u32, u32)>, both: Vec<bool>, load: f
         capacity: vec![capacity; periods],
         overtime_capacity: vec![overtime; periods],
         overtime_cost: 3.0,
+        capacity_cost: None,
     };
     Scenario {
         name: "small group".into(),

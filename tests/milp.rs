@@ -39,6 +39,7 @@ fn resource(capacity: f64, periods: usize) -> Resource {
         capacity: vec![capacity; periods],
         overtime_capacity: vec![0.0; periods],
         overtime_cost: 0.0,
+        capacity_cost: None,
     }
 }
 

@@ -299,6 +299,7 @@ fn the_joint_plan_is_the_cheapest_whole_plan_on_tiny_bills() {
                 capacity: vec![4.0; periods],
                 overtime_capacity: vec![1.0; periods],
                 overtime_cost: 3.0,
+                capacity_cost: None,
             });
             scenario.routings.push(Routing {
                 item: 2,

@@ -124,6 +124,7 @@ fn scenario(items: Vec<Item>, frozen: usize, capacity: Option<(f64, f64, f64)>) 
                 capacity: vec![regular; periods],
                 overtime_capacity: vec![overtime; periods],
                 overtime_cost: 3.0,
+                capacity_cost: None,
             }],
             (0..items.len())
                 .map(|item| Routing {

@@ -33,6 +33,7 @@ fn scenario(items: Vec<Item>, capacity: Option<f64>) -> Scenario {
                 capacity: vec![c; periods],
                 overtime_capacity: vec![0.0; periods],
                 overtime_cost: 0.0,
+                capacity_cost: None,
             }],
             (0..items.len())
                 .map(|item| Routing {

@@ -252,6 +252,7 @@ mod tests {
             capacity: vec![10.0; 2],
             overtime_capacity: vec![0.0; 2],
             overtime_cost: 0.0,
+            capacity_cost: None,
         };
         let route = |item, resource| Routing {
             item,

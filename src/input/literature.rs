@@ -214,6 +214,7 @@ fn scenario(name: &str, capacity: f64, rows: &[[f64; 4]], demand: &[Vec<f64>]) -
             capacity: vec![capacity; periods],
             overtime_capacity: vec![0.0; periods],
             overtime_cost: 0.0,
+            capacity_cost: None,
         }],
         routings,
         frozen: 0,

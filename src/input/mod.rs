@@ -51,7 +51,13 @@ const COSTS: Schema = Schema {
     required: &["item"],
 };
 const RESOURCES: Schema = Schema {
-    known: &["resource", "capacity", "overtime_capacity", "overtime_cost"],
+    known: &[
+        "resource",
+        "capacity",
+        "overtime_capacity",
+        "overtime_cost",
+        "capacity_cost",
+    ],
     required: &["resource", "capacity"],
 };
 const CAPACITY: Schema = Schema {
@@ -455,11 +461,16 @@ fn read_resources(dir: &Path, calendar: &Calendar) -> Result<Vec<Resource>> {
                 format!("resource {id} allows overtime but gives no overtime_cost; give its cost per unit of capacity (0 if it is free)"),
             ));
         }
+        let capacity_cost = file
+            .cell(record, "capacity_cost")
+            .map(|cell| cell.non_negative())
+            .transpose()?;
         resources.push(Resource {
             id,
             capacity: vec![capacity; calendar.periods],
             overtime_capacity: vec![overtime_capacity; calendar.periods],
             overtime_cost,
+            capacity_cost,
         });
     }
     Ok(resources)

@@ -133,6 +133,10 @@ pub struct Resource {
     pub capacity: Vec<f64>,
     pub overtime_capacity: Vec<f64>,
     pub overtime_cost: f64,
+    /// What one more unit of regular capacity costs in a bucket, where
+    /// resources.csv gives it (`capacity_cost`): `compare` prices the
+    /// capacity a scenario adds with it.
+    pub capacity_cost: Option<f64>,
 }
 
 /// How much of a resource an item uses.

@@ -240,6 +240,9 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
     };
     out.push_str("<section class=\"summary\"><h2>Summary</h2>");
     let _ = write!(out, "<p class=\"lead\">{}</p>", escape(&lead));
+    for sentence in super::notes::compare_sentences(c, |x| cash.of(x)) {
+        let _ = write!(out, "<p>{}</p>", escape(&sentence));
+    }
     for (label, side) in [("A", a), ("B", b)] {
         let status = figures::status_phrase(side.result.status, side.result.is_exact());
         let gaps = (
@@ -281,12 +284,23 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
         &format!("{} / {}", ea.setups, eb.setups),
     );
     out.push_str("</div></section>");
-    let mut warnings = cautions(&a.scenario, &a.result);
-    for caution in cautions(&b.scenario, &b.result) {
-        if !warnings.contains(&caution) {
-            warnings.push(caution);
-        }
-    }
+    // Each caution says which scenario's plan it is about.
+    let (in_a, in_b) = (
+        cautions(&a.scenario, &a.result),
+        cautions(&b.scenario, &b.result),
+    );
+    let mut warnings: Vec<String> = in_a
+        .iter()
+        .map(|w| {
+            let label = if in_b.contains(w) { "A and B" } else { "A" };
+            format!("{label}: {w}")
+        })
+        .collect();
+    warnings.extend(
+        in_b.iter()
+            .filter(|w| !in_a.contains(w))
+            .map(|w| format!("B: {w}")),
+    );
     if !warnings.is_empty() {
         out.push_str("<section class=\"cautions\"><h2>Check before releasing the orders</h2>");
         for caution in &warnings {

@@ -343,7 +343,15 @@ pub fn compare(c: &crate::compare::Comparison) -> Value {
             "setups": eb.setups as i64 - ea.setups as i64,
             "average_stock_value": diff(ea.average_stock_value(&c.a.scenario), eb.average_stock_value(&c.b.scenario)),
             "overtime_used": diff(ea.overtime_used(), eb.overtime_used()),
+            "least_cost_range": c.difference_range().map(|(low, high)| [clean(low), clean(high)]),
+            "within_gaps": c.within_gaps(),
         },
+        "added_capacity": c.added_capacity().iter().map(|added| json!({
+            "resource": added.resource,
+            "added": clean(added.added),
+            "price": added.price.map(clean),
+            "cost": added.cost().map(clean),
+        })).collect::<Vec<_>>(),
         "items": items,
         "resources": resources,
     })

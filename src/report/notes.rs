@@ -159,3 +159,55 @@ pub fn freeze(scenario: &Scenario, free: &Free) -> Vec<String> {
     }
     notes
 }
+
+/// What a comparison leaves open and what it leaves out, in words: whether
+/// the gaps of the two solves settle which scenario costs less, and the
+/// price of the capacity B adds. `money` formats an amount.
+pub fn compare_sentences(
+    c: &crate::compare::Comparison,
+    money: impl Fn(f64) -> String,
+) -> Vec<String> {
+    let mut sentences = Vec::new();
+    for (label, side) in [("A", &c.a), ("B", &c.b)] {
+        let result = &side.result;
+        if result.is_exact() && !result.evaluation.feasible {
+            sentences.push(format!(
+                "{label} has no feasible plan to compare with (see its status); the differences below are against the plan shown for it, which breaks a constraint."
+            ));
+        }
+    }
+    if let (true, Some((low, high))) = (c.within_gaps(), c.difference_range()) {
+        sentences.push(format!(
+            "Which scenario can be planned for less is not proven: the gaps of the two solves overlap, so B's least possible cost lies anywhere from {} less to {} more than A's. Give both more time (--time-limit, or more --nodes) to settle it.",
+            money(-low),
+            money(high)
+        ));
+    }
+    let difference = c.b.result.total_cost() - c.a.result.total_cost();
+    for added in c.added_capacity() {
+        let amount = quantity(added.added);
+        match (added.price, added.cost()) {
+            (Some(price), Some(cost)) => {
+                let net = difference + cost;
+                let verdict = if net.abs() < 0.005 {
+                    "with that paid, B costs the same as A".to_string()
+                } else if net < 0.0 {
+                    format!("with that paid, B still costs {} less than A", money(-net))
+                } else {
+                    format!("with that paid, B costs {} more than A", money(net))
+                };
+                sentences.push(format!(
+                    "B adds {amount} of capacity on {} over the horizon; at {} a unit (capacity_cost in resources.csv) that costs {}, which the plan costs leave out: {verdict}.",
+                    added.resource,
+                    money(price),
+                    money(cost)
+                ));
+            }
+            _ => sentences.push(format!(
+                "B adds {amount} of capacity on {} over the horizon, which the plan costs leave out; give its price per unit as capacity_cost in resources.csv to have it counted.",
+                added.resource
+            )),
+        }
+    }
+    sentences
+}

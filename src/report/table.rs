@@ -644,6 +644,9 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
             wrap(&format!("Note: {note}"), "  ", &mut out);
         }
     }
+    for sentence in super::notes::compare_sentences(c, money) {
+        wrap(&sentence, "  ", &mut out);
+    }
     let (ea, eb) = (&a.result.evaluation, &b.result.evaluation);
     let mut grid = Grid::new(&["", "A", "B", "B - A"]);
     let money_row = |label: &str, x: f64, y: f64| {
