@@ -27,6 +27,9 @@
 //! received and costed. Plan stability compares each plan with the one
 //! before over the buckets both cover.
 
+pub mod shop;
+pub mod short;
+
 use crate::capacity::milp::MilpOptions;
 use crate::eval::{evaluate, Evaluation};
 use crate::input::Snapshot;
@@ -113,6 +116,14 @@ pub struct Week {
     /// Against the previous week's plan (none in the first week).
     pub stability: Option<Stability>,
     pub notes: Vec<String>,
+    /// Requirements the week's plan leaves late because no plan could meet
+    /// them on time (`short`); empty for a week planned as it stood.
+    pub late: Vec<short::Late>,
+    /// Work of the week's releases cut to fit the lines (`shop`).
+    pub cuts: Vec<shop::Cut>,
+    /// Load of the week's releases as planned beyond capacity plus
+    /// overtime, over the resources.
+    pub overload: f64,
 }
 
 /// The whole run of one method.
@@ -134,6 +145,26 @@ impl RollResult {
     /// Weeks whose plan has each status.
     pub fn count(&self, status: Status) -> usize {
         self.weeks.iter().filter(|w| w.status == status).count()
+    }
+
+    /// Weeks planned with requirements left late (`Week::late`).
+    pub fn weeks_late(&self) -> usize {
+        self.weeks.iter().filter(|w| !w.late.is_empty()).count()
+    }
+
+    /// Units cut from the orders carried out, over the run.
+    pub fn units_cut(&self) -> f64 {
+        self.weeks
+            .iter()
+            .flat_map(|w| &w.cuts)
+            .map(|c| c.quantity)
+            .sum()
+    }
+
+    /// Load planned beyond capacity plus overtime in the buckets carried
+    /// out, over the run.
+    pub fn overload_planned(&self) -> f64 {
+        self.weeks.iter().map(|w| w.overload).sum()
     }
 
     /// The largest gap of a week's plan that is not proven optimal.
@@ -245,14 +276,25 @@ pub fn roll(
                 }
             }
         }
-        let planned = solve::plan_scenario(
-            &window,
-            &solve::Options {
-                method: Some(options.method.clone()),
-                milp: options.milp.clone(),
-            },
-        )?
-        .chosen;
+        let plan = |scenario: &Scenario| {
+            solve::plan_scenario(
+                scenario,
+                &solve::Options {
+                    method: Some(options.method.clone()),
+                    milp: options.milp.clone(),
+                },
+            )
+            .map(|outcome| outcome.chosen)
+        };
+        let mut planned = plan(&window)?;
+        let mut late = Vec::new();
+        if planned.is_exact() && planned.status == Status::Infeasible {
+            let again = plan(&short::with_backlog(&window))?;
+            if again.evaluation.feasible {
+                late = short::late(&window, &again, b);
+                planned = again;
+            }
+        }
         let releases = releases_of(&window, &planned.plan, b);
         let stability = previous
             .as_ref()
@@ -260,9 +302,24 @@ pub fn roll(
         if let Some(s) = &stability {
             total.add(s);
         }
-        // Carry out bucket b: its releases become open orders, then its
-        // demand happens.
-        for order in releases.iter().filter(|o| o.bucket == b) {
+        // Carry out bucket b as the lines allow: its releases become open
+        // orders, then its demand happens.
+        let due: Vec<Release> = releases.iter().filter(|o| o.bucket == b).copied().collect();
+        let cover: Vec<f64> = (0..items)
+            .map(|i| {
+                let left =
+                    stock[i] + base.items[i].receipts[b] + open[i][b] - snapshot.demand[i][b];
+                let ahead = &snapshot.demand[i][(b + 1).min(end)..end];
+                let mean = ahead.iter().sum::<f64>() / ahead.len().max(1) as f64;
+                if mean > 1e-9 {
+                    left / mean
+                } else {
+                    f64::INFINITY
+                }
+            })
+            .collect();
+        let carried = shop::carry_out(base, b, &due, &cover);
+        for order in &carried.orders {
             let receipt = order.bucket + base.items[order.item].lead_time;
             if receipt < periods && base.items[order.item].firm[receipt] > 0.0 {
                 firm_done[order.item][receipt] = true;
@@ -275,7 +332,7 @@ pub fn roll(
         // A parent's order started in bucket b takes its components out of
         // stock then (bill of material).
         let mut issued = vec![0.0; items];
-        for order in releases.iter().filter(|o| o.bucket == b) {
+        for order in &carried.orders {
             for line in base.bom.iter().filter(|l| l.parent == order.item) {
                 issued[line.component] += line.per_parent_unit() * order.quantity;
             }
@@ -292,6 +349,9 @@ pub fn roll(
             gap: planned.gap().filter(|_| planned.status == Status::Feasible),
             stability,
             notes: planned.notes.clone(),
+            late,
+            cuts: carried.cuts,
+            overload: carried.overload,
         });
         previous = Some((end, releases));
     }

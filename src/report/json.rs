@@ -380,6 +380,18 @@ pub fn roll(run: &super::table::RollRun) -> Value {
                         "share_changed": w.stability.map(|s| clean(s.share_changed())),
                         "units_moved": w.stability.map(|s| clean(s.quantity_moved)),
                         "notes": w.notes,
+                        "late": w.late.iter().map(|l| json!({
+                            "item": run.scenario.items[l.item].id,
+                            "period": l.bucket + 1,
+                            "date": calendar.label(l.bucket),
+                            "quantity": clean(l.quantity),
+                        })).collect::<Vec<_>>(),
+                        "overload": clean(w.overload),
+                        "cuts": w.cuts.iter().map(|c| json!({
+                            "item": run.scenario.items[c.item].id,
+                            "resource": run.scenario.resources[c.resource].id,
+                            "quantity": clean(c.quantity),
+                        })).collect::<Vec<_>>(),
                     })
                 })
                 .collect();
@@ -394,6 +406,9 @@ pub fn roll(run: &super::table::RollRun) -> Value {
                     "fill_rate": clean(e.fill_rate()),
                     "average_stock": clean(e.average_stock()),
                     "shortages": e.shortages.len(),
+                    "overload_planned": clean(r.overload_planned()),
+                    "units_cut": clean(r.units_cut()),
+                    "overloads": e.overloads.len(),
                 },
                 "stability": {
                     "mean_share_changed": clean(r.mean_share_changed()),
@@ -410,6 +425,7 @@ pub fn roll(run: &super::table::RollRun) -> Value {
                     "feasible": r.count(crate::solve::Status::Feasible),
                     "infeasible": r.count(crate::solve::Status::Infeasible),
                     "unknown": r.count(crate::solve::Status::Unknown),
+                    "late": r.weeks_late(),
                 },
                 "largest_gap": r.worst_gap().map(clean),
                 "weeks": weeks,

@@ -854,6 +854,8 @@ pub fn roll(run: &RollRun) -> String {
         "setups",
         "fill rate",
         "short",
+        "overload",
+        "cut",
     ]);
     for r in run.results {
         let e = &r.realised;
@@ -869,11 +871,13 @@ pub fn roll(run: &RollRun) -> String {
             e.setups.to_string(),
             format!("{:.1} %", 100.0 * e.fill_rate()),
             quantity(short),
+            quantity(r.overload_planned().round()),
+            quantity(r.units_cut().round()),
         ]);
     }
     grid.render(&mut out);
     wrap(
-        &format!("cost: setup, holding and other (backlog and overtime); unit cost is left apart, as it follows the units bought, and a method that leaves demand unmet or stock at the end buys fewer or more; end stock: its value at unit cost; short: the most units short at the end of a {unit} (items without backlog)"),
+        &format!("cost: setup, holding and other (backlog and overtime); unit cost is left apart, as it follows the units bought, and a method that leaves demand unmet or stock at the end buys fewer or more; end stock: its value at unit cost; short: the most units short at the end of a {unit} (items without backlog); overload: capacity the orders as planned needed beyond capacity and overtime in the {unit}s carried out; cut: units the shop could not make for it (the item that could wait longest is cut first), so that every order carried out fits the lines"),
         "  ",
         &mut out,
     );
@@ -922,6 +926,7 @@ pub fn roll(run: &RollRun) -> String {
         "feasible",
         "infeasible",
         "unknown",
+        "late",
         "largest gap",
     ]);
     for r in run.results {
@@ -931,16 +936,43 @@ pub fn roll(run: &RollRun) -> String {
             r.count(Status::Feasible).to_string(),
             r.count(Status::Infeasible).to_string(),
             r.count(Status::Unknown).to_string(),
+            r.weeks_late().to_string(),
             r.worst_gap()
                 .map_or_else(|| "-".to_string(), |g| format!("{:.2} %", 100.0 * g)),
         ]);
     }
     grid.render(&mut out);
     wrap(
-        "for the rules, feasible means the rule's plan met every constraint; it is not a claim of least cost",
+        "for the rules, feasible means the rule's plan met every constraint; it is not a claim of least cost; late: plans that could not meet every requirement on time (a forecast that rose inside the freeze) and were planned with those units late, at a penalty far above any other cost of a unit; the units are listed below",
         "  ",
         &mut out,
     );
+    for r in run.results {
+        for week in r.weeks.iter().filter(|w| !w.late.is_empty()) {
+            let units: Vec<String> = week
+                .late
+                .iter()
+                .map(|l| {
+                    format!(
+                        "{} {} late at the end of {}",
+                        run.scenario.items[l.item].id,
+                        quantity(l.quantity),
+                        calendar.label(l.bucket)
+                    )
+                })
+                .collect();
+            wrap(
+                &format!(
+                    "Late: {} in the plan of {}: {}",
+                    r.label,
+                    calendar.label(week.bucket),
+                    units.join("; ")
+                ),
+                "  ",
+                &mut out,
+            );
+        }
+    }
     // The first note of the first week that has one, per method: usually
     // why a plan was infeasible.
     for r in run.results {
