@@ -51,6 +51,62 @@ pub struct RollOptions {
     /// The method's output name (`exact` or a rule).
     pub method: String,
     pub milp: MilpOptions,
+    /// A target cycle service level: each week's safety stock is set from
+    /// the forecast errors seen so far (`safety_estimates`), where that is
+    /// above the item's own.
+    pub service_level: Option<f64>,
+}
+
+/// Forecast errors needed before an item's error is estimated.
+pub const MIN_ERRORS: usize = 4;
+
+/// One item's safety stock from its forecast error (`model::safety`).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SafetyEstimate {
+    /// Standard deviation of the one-bucket-ahead forecast error.
+    pub sigma: f64,
+    /// Forecast errors it rests on.
+    pub errors: usize,
+    /// k x sigma x sqrt(lead time + 1).
+    pub safety_stock: f64,
+}
+
+/// Each item's safety stock for a cycle service level `level`, from the
+/// one-bucket-ahead errors of the snapshots before `upto` (the week being
+/// planned sees only errors that have happened): the demand that happened
+/// in a snapshot's first bucket less what the snapshot before forecast for
+/// it. `None` for an item with fewer than `MIN_ERRORS` errors.
+pub fn safety_estimates(
+    base: &Scenario,
+    history: &[Snapshot],
+    level: f64,
+    upto: usize,
+) -> Vec<Option<SafetyEstimate>> {
+    let upto = upto.min(history.len());
+    (0..base.items.len())
+        .map(|i| {
+            let errors: Vec<f64> = (1..upto)
+                .filter(|&k| history[k].bucket == history[k - 1].bucket + 1)
+                .map(|k| {
+                    let b = history[k].bucket;
+                    history[k].demand[i][b] - history[k - 1].demand[i][b]
+                })
+                .collect();
+            if errors.len() < MIN_ERRORS {
+                return None;
+            }
+            let sigma = crate::model::safety::error_sd(&errors)?;
+            Some(SafetyEstimate {
+                sigma,
+                errors: errors.len(),
+                safety_stock: crate::model::safety::safety_stock(
+                    level,
+                    sigma,
+                    base.items[i].lead_time,
+                ),
+            })
+        })
+        .collect()
 }
 
 /// One order of a plan: item, release bucket and quantity (of the
@@ -237,7 +293,13 @@ pub fn roll(
         } else {
             0
         };
+        let safety = options
+            .service_level
+            .map(|level| safety_estimates(base, history, level, k + 1));
         for (i, item) in window.items.iter_mut().enumerate() {
+            if let Some(Some(estimate)) = safety.as_ref().map(|s| s[i]) {
+                item.safety_stock = item.safety_stock.max(estimate.safety_stock.round());
+            }
             item.demand = snapshot.demand[i][b..end].to_vec();
             item.initial_stock = stock[i].max(0.0);
             item.demand[0] += (-stock[i]).max(0.0);

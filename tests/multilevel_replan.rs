@@ -118,6 +118,7 @@ fn roll_exact(dir: &tempfile::TempDir, snapshots: &[(&str, &str)]) -> lotwright:
         change_cost: 0.0,
         method: "exact".into(),
         milp: Default::default(),
+        service_level: None,
     };
     roll(&base, &history, &options, &Quiet).expect("a run")
 }

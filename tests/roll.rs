@@ -84,6 +84,7 @@ fn options(horizon: usize, frozen: usize) -> RollOptions {
         change_cost: 0.0,
         method: "exact".into(),
         milp: Default::default(),
+        service_level: None,
     }
 }
 

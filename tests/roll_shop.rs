@@ -82,6 +82,7 @@ fn options(method: &str, horizon: usize, frozen: usize) -> RollOptions {
         change_cost: 0.0,
         method: method.into(),
         milp: Default::default(),
+        service_level: None,
     }
 }
 

@@ -216,6 +216,7 @@ pub fn roll(
                 change_cost: cost,
                 method,
                 milp: milp.clone(),
+                service_level: None,
             };
             results.push(roll_method(&scenario, &history, &options, &Quiet)?);
         }
@@ -228,6 +229,7 @@ pub fn roll(
             change_cost,
             time_limit,
             results: &results,
+            safety: None,
         };
         Ok::<_, Error>(report::json::roll(&run))
     })?

@@ -8,6 +8,7 @@
 
 mod calendar;
 mod plan;
+pub mod safety;
 
 pub use calendar::{BucketKind, Calendar, DatePlace};
 pub use plan::Plan;

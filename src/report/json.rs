@@ -432,7 +432,19 @@ pub fn roll(run: &super::table::RollRun) -> Value {
             })
         })
         .collect();
+    let safety = run.safety.as_ref().map(|(level, estimates)| {
+        json!({
+            "service_level": clean(*level),
+            "items": run.scenario.items.iter().zip(estimates).map(|(item, e)| json!({
+                "item": item.id,
+                "errors": e.map(|e| e.errors),
+                "error_sd": e.map(|e| clean(e.sigma)),
+                "safety_stock": clean(e.map_or(item.safety_stock, |e| e.safety_stock.round().max(item.safety_stock))),
+            })).collect::<Vec<_>>(),
+        })
+    });
     json!({
+        "safety_stock": safety,
         "scenario": run.scenario.name,
         "bucket": calendar.kind.name(),
         "start": calendar.label(run.first),

@@ -811,6 +811,10 @@ pub struct RollRun<'a> {
     /// Seconds each week's MILP may run.
     pub time_limit: f64,
     pub results: &'a [crate::roll::RollResult],
+    /// With a target service level: the level, and each item's safety
+    /// stock from the forecast errors of the whole history (the last
+    /// week's estimate; earlier weeks saw fewer errors).
+    pub safety: Option<(f64, Vec<Option<crate::roll::SafetyEstimate>>)>,
 }
 
 /// The terminal page of `roll`: realised cost and service, plan stability
@@ -919,6 +923,38 @@ pub fn roll(run: &RollRun) -> String {
         "  ",
         &mut out,
     );
+    if let Some((level, estimates)) = &run.safety {
+        let _ = writeln!(
+            out,
+            "\nSafety stock for a {:.1} % cycle service level, from the forecast errors",
+            100.0 * level
+        );
+        let mut grid = Grid::new(&["item", "errors", "error sd", "lead time", "safety stock"]);
+        for (item, estimate) in run.scenario.items.iter().zip(estimates) {
+            grid.push(match estimate {
+                Some(e) => vec![
+                    item.id.clone(),
+                    e.errors.to_string(),
+                    format!("{:.1}", e.sigma),
+                    item.lead_time.to_string(),
+                    quantity(e.safety_stock.round().max(item.safety_stock)),
+                ],
+                None => vec![
+                    item.id.clone(),
+                    "-".into(),
+                    "-".into(),
+                    item.lead_time.to_string(),
+                    quantity(item.safety_stock),
+                ],
+            });
+        }
+        grid.render(&mut out);
+        wrap(
+            &format!("safety stock = k x error sd x sqrt(lead time + 1), k the normal quantile of the level (Silver, Pyke & Thomas, 4th ed.), from {} errors on, kept at the item's own where that is higher; each {unit} uses the errors seen before it", crate::roll::MIN_ERRORS),
+            "  ",
+            &mut out,
+        );
+    }
     let _ = writeln!(out, "\nThe {unit}ly plans");
     let mut grid = Grid::new(&[
         "method",
