@@ -14,10 +14,26 @@ pub use plan::Plan;
 
 use serde::Serialize;
 
+/// The unit of an item whose row in items.csv gives none.
+pub const DEFAULT_ITEM_UNIT: &str = "units";
+/// The unit of a resource whose row in resources.csv gives none.
+pub const DEFAULT_CAPACITY_UNIT: &str = "capacity units";
+
+/// The one unit every entry shares, or `None` when they differ (or there
+/// are none): quantities may then be added only as value, not as counts.
+pub fn shared_unit<'a>(mut units: impl Iterator<Item = &'a str>) -> Option<&'a str> {
+    let first = units.next()?;
+    units.all(|u| u == first).then_some(first)
+}
+
 /// One item to be made or bought.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Item {
     pub id: String,
+    /// What one unit of the item is (kegs, cartons, kg): the unit of its
+    /// quantities in every output. `DEFAULT_ITEM_UNIT` when items.csv
+    /// gives none.
+    pub unit: String,
     /// Cost of a setup (or an order), by the bucket where the release falls.
     pub setup_cost: Vec<f64>,
     /// The setup cost of items.csv, before per-bucket overrides (the EOQ
@@ -63,6 +79,7 @@ impl Item {
         let periods = demand.len();
         Item {
             id: id.to_string(),
+            unit: DEFAULT_ITEM_UNIT.to_string(),
             setup_cost: vec![setup_cost; periods],
             nominal_setup_cost: setup_cost,
             nominal_holding_cost: holding_cost,
@@ -130,6 +147,11 @@ impl Item {
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Resource {
     pub id: String,
+    /// What capacity is counted in (hours, minutes, pieces): the unit of
+    /// its capacity, load and overtime in every output, and of the
+    /// routings' `per_unit` and `setup_time`. `DEFAULT_CAPACITY_UNIT`
+    /// when resources.csv gives none.
+    pub unit: String,
     pub capacity: Vec<f64>,
     pub overtime_capacity: Vec<f64>,
     pub overtime_cost: f64,
@@ -342,6 +364,19 @@ impl Scenario {
             period_offset: self.period_offset + start,
             ..self.clone()
         }
+    }
+
+    /// The unit all items share, or `None` when their units differ: then
+    /// stock across items is shown as value, never as a summed count.
+    pub fn stock_unit(&self) -> Option<&str> {
+        shared_unit(self.items.iter().map(|item| item.unit.as_str()))
+    }
+
+    /// The unit all resources share, or `None` when they differ (or there
+    /// are no resources): then overtime across resources is shown as its
+    /// cost, never as a summed count.
+    pub fn capacity_unit(&self) -> Option<&str> {
+        shared_unit(self.resources.iter().map(|r| r.unit.as_str()))
     }
 
     /// The routings of one item.
