@@ -306,3 +306,73 @@ fn plan_text_has_no_solver_words_nor_one_setups() {
     }
     assert!(!text.contains(" 1 setups"), "{text}");
 }
+
+#[test]
+fn eoq_help_says_one_time_unit_and_a_mismatch_warns() {
+    let (code, help, _) = lotwright(&["eoq", "--help"]);
+    assert_eq!(code, 0);
+    assert!(help.contains("same time unit"), "{help}");
+    // Invented: 9,100 a year, 45 an order, and a holding cost of 0.06 per
+    // week on a part of 15.00, given as if it were per year.
+    let args = [
+        "eoq",
+        "--demand",
+        "9100",
+        "--setup-cost",
+        "45",
+        "--holding-cost",
+        "0.06",
+        "--time-unit",
+        "year",
+        "--unit-cost",
+        "15",
+    ];
+    let (code, text, err) = lotwright(&args);
+    assert_eq!(code, 0, "{err}");
+    assert!(text.contains("Warning:"), "{text}");
+    assert!(text.contains("0.4 % of the unit cost a year"), "{text}");
+    let (code, out, err) = lotwright(&[&args[..], &["--json"]].concat());
+    assert_eq!(code, 0, "{err}");
+    let value: Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(value["time_unit"], "year");
+    assert_eq!(
+        value["warnings"].as_array().map(Vec::len),
+        Some(1),
+        "{value}"
+    );
+    // 0.06 x 52 = 3.12 a year: 20.8 % of 15.00, a lot of 512 every 20.55
+    // days; nothing to warn about.
+    let (code, out, _) = lotwright(&[
+        "eoq",
+        "--demand",
+        "9100",
+        "--setup-cost",
+        "45",
+        "--holding-cost",
+        "3.12",
+        "--time-unit",
+        "year",
+        "--unit-cost",
+        "15",
+        "--json",
+    ]);
+    assert_eq!(code, 0);
+    let value: Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(value["warnings"], serde_json::json!([]), "{value}");
+    assert!(
+        (value["cycle_days"].as_f64().unwrap() - 20.55).abs() < 0.01,
+        "{value}"
+    );
+    // Without a time unit, a lot lasting 577 time units is over a year
+    // even if the unit is a day.
+    let (_, text, _) = lotwright(&[
+        "eoq",
+        "--demand",
+        "3",
+        "--setup-cost",
+        "500",
+        "--holding-cost",
+        "0.001",
+    ]);
+    assert!(text.contains("fewer than one order a year"), "{text}");
+}
