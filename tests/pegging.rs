@@ -66,8 +66,8 @@ fn a_component_shortage_is_pegged_to_the_parent_orders_it_leaves_short() {
     assert_eq!(
         v["shortages"],
         json!([
-            {"item": "C", "period": 2, "quantity": 16.0, "own_demand": 0.0, "parent_orders": short_for},
-            {"item": "C", "period": 3, "quantity": 16.0, "own_demand": 0.0, "parent_orders": short_for},
+            {"item": "C", "period": 2, "quantity": 16.0, "unit": "units", "own_demand": 0.0, "parent_orders": short_for},
+            {"item": "C", "period": 3, "quantity": 16.0, "unit": "units", "own_demand": 0.0, "parent_orders": short_for},
         ])
     );
     assert_eq!(

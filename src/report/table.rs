@@ -268,17 +268,13 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
     let _ = writeln!(out, "\nStock and setups by method");
     // Stock summed over items is a count only when they share a unit.
     let unit = scenario.stock_unit();
-    let (average, ending) = match unit {
-        Some(unit) => (format!("avg stock ({unit})"), format!("end stock ({unit})")),
-        None => (String::new(), String::new()),
-    };
     let mut header = vec!["method", "setups"];
     if unit.is_some() {
-        header.push(&average);
+        header.push("avg stock");
     }
     header.push("avg stock value");
     if unit.is_some() {
-        header.push(&ending);
+        header.push("end stock");
     }
     header.extend(["end stock value", "vs exact plan"]);
     let mut grid = Grid::new(&header);
@@ -302,6 +298,9 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
         grid.push(row);
     }
     grid.render(out);
+    if let Some(unit) = unit.filter(|&u| u != crate::model::DEFAULT_ITEM_UNIT) {
+        let _ = writeln!(out, "  stock counted in {unit}");
+    }
     if unit.is_none() {
         wrap(
             &format!(
@@ -416,7 +415,7 @@ fn faults(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
             "quantity",
             "limit",
             "unit",
-            "makes the plan infeasible",
+            "breaks plan",
         ]);
         for v in &evaluation.violations {
             let what = match v.kind {
@@ -435,7 +434,7 @@ fn faults(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
                 quantity(v.quantity),
                 quantity(v.limit),
                 item_unit(scenario, &v.item),
-                if v.binding { "yes" } else { "no: a target" }.to_string(),
+                if v.binding { "yes" } else { "no: target" }.to_string(),
             ]);
         }
         grid.render(out);

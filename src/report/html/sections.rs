@@ -147,20 +147,21 @@ pub(super) fn stock_section(scenario: &Scenario, outcome: &Outcome, out: &mut St
         let mine = &chosen.evaluation.items[i];
         let setups = |n: usize| crate::report::count(n, "setup");
         let mut caption = format!(
-            "{} ({}): {}, average stock {}",
+            "{}: {}, average stock {} {}",
             item.id,
-            item.unit,
             setups(mine.setups),
-            units((mine.average_stock * 10.0).round() / 10.0)
+            units((mine.average_stock * 10.0).round() / 10.0),
+            item.unit
         );
         if let Some(r) = reference {
             let theirs = &r.evaluation.items[i];
             let _ = write!(
                 caption,
-                "; {}: {}, average stock {}",
+                "; {}: {}, average stock {} {}",
                 r.method,
                 setups(theirs.setups),
-                units((theirs.average_stock * 10.0).round() / 10.0)
+                units((theirs.average_stock * 10.0).round() / 10.0),
+                item.unit
             );
             if r.method == "fixed-lot" && item.fixed_lot.is_none() {
                 caption.push_str(" (no fixed_lot: ordered lot-for-lot)");
@@ -274,7 +275,7 @@ pub(super) fn load_section(scenario: &Scenario, chosen: &MethodResult, out: &mut
             .map(|(t, _)| (t + 1).to_string())
             .collect();
         let overtime = load.overtime.iter().filter(|&&o| o > 0.0).count();
-        let mut caption = format!("{} (in {})", resource.id, resource.unit);
+        let mut caption = resource.id.clone();
         if !reduced.is_empty() {
             let _ = write!(
                 caption,
@@ -291,6 +292,7 @@ pub(super) fn load_section(scenario: &Scenario, chosen: &MethodResult, out: &mut
                 if overtime == 1 { "" } else { "s" }
             );
         }
+        let _ = write!(caption, " (load in {})", resource.unit);
         let _ = write!(
             out,
             "<figure>{}<figcaption>{}</figcaption></figure>",
