@@ -49,6 +49,7 @@ fn seasonal_item(periods: usize) -> Item {
     }
     Item {
         id: "bench".into(),
+        unit: "units".into(),
         nominal_setup_cost: setup_cost[0],
         nominal_holding_cost: holding_cost[0],
         setup_cost,

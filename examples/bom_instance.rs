@@ -184,6 +184,7 @@ fn main() {
                 ((mean + setup_time * lots[r] as f64 / weeks as f64) / utilisation).round();
             scenario.resources.push(Resource {
                 id: format!("R{r}"),
+                unit: "capacity units".into(),
                 capacity: vec![capacity; weeks],
                 overtime_capacity: vec![0.0; weeks],
                 overtime_cost: 0.0,

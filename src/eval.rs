@@ -343,10 +343,11 @@ pub fn evaluate(scenario: &Scenario, plan: &Plan) -> Evaluation {
             let parent = slots[line.parent]
                 .as_ref()
                 .expect("a parent is evaluated before its components");
-            let per = line.per_parent_unit();
             let releases = parent.planned_releases.iter().zip(&parent.firm_releases);
             for (t, (&planned, &firm)) in releases.enumerate() {
-                dependent[t] += per * (planned + firm);
+                if planned + firm > 0.0 {
+                    dependent[t] += scenario.issue(line, planned + firm);
+                }
             }
         }
         let exploded;

@@ -682,7 +682,7 @@ fn solve_constrained(
             return;
         }
         Err(NotApplicable::TooLarge(size)) => notes.push(format!(
-            "item {}: the dynamic program over stock levels would pass its bound ({:.1e} states and decisions against {:.0e}); solved by the MILP instead",
+            "item {}: the dynamic program over stock levels would pass its bound ({:.1e} states and decisions against {:.0e}); solved by the mixed-integer program instead",
             item.id,
             size,
             single_dp::STATE_LIMIT
@@ -767,16 +767,16 @@ fn solve_constrained(
 fn heuristic_note(component: &Component, found: &Found) -> String {
     let what = match component.solver {
         "lagrangean" => format!(
-            "the Lagrangean relaxation ({} subgradient steps) with its smoothing heuristic",
+            "the Lagrangean method ({} rounds of pricing capacity) and smoothing of the overloads",
             found.iterations
         ),
         _ => format!(
-            "fix-and-optimize ({} subproblems on HiGHS, {} improved the plan) from the Lagrangean relaxation ({} subgradient steps)",
+            "fix-and-optimize ({} smaller plans re-solved, {} improved the plan) from the Lagrangean method ({} rounds of pricing capacity)",
             found.subproblems, found.improved, found.iterations
         ),
     };
     format!(
-        "{}: planned by {what}; the lower bound is the relaxation's, so the gap shown is proven but optimality is not claimed",
+        "{}: planned by {what}; the lower bound comes from pricing capacity, so the gap shown is proven but optimality is not claimed",
         group_name(component)
     )
 }

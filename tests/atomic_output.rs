@@ -136,7 +136,7 @@ fn a_good_run_leaves_the_whole_folder_and_no_temporary_sibling() {
     }
     let plan = String::from_utf8_lossy(&written[Path::new("plan.csv")]).into_owned();
     assert!(
-        plan.starts_with("item,period,date,release_period,release_date,quantity,kind\n"),
+        plan.starts_with("item,period,date,release_period,release_date,quantity,kind,unit\n"),
         "{plan}"
     );
     assert_eq!(snapshot(&fixture.scenario()), inputs, "inputs unchanged");

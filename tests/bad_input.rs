@@ -1655,7 +1655,7 @@ fn optional_files_with_only_a_header_are_accepted() {
     let idle = clean_result(Plain, &[("demand.csv", Map(header_only))], false);
     assert_eq!(
         text(&idle),
-        "item,period,date,release_period,release_date,quantity,kind\n"
+        "item,period,date,release_period,release_date,quantity,kind,unit\n"
     );
     // With only a header in routing.csv no item uses the resources.
     let free = clean_result(Shared, &[("routing.csv", Map(header_only))], false);

@@ -25,6 +25,7 @@ fn scenario(
     let periods = demand.len();
     let item = Item {
         id: "A".into(),
+        unit: "units".into(),
         setup_cost: vec![setup; periods],
         nominal_setup_cost: setup,
         nominal_holding_cost: holding,
@@ -54,6 +55,7 @@ fn scenario(
         items: vec![item],
         resources: vec![Resource {
             id: "R".into(),
+            unit: "capacity units".into(),
             capacity: vec![capacity; periods],
             overtime_capacity: vec![overtime; periods],
             overtime_cost: 3.0,

@@ -31,6 +31,7 @@ fn one_item_on_one_resource(
         items: vec![item],
         resources: vec![Resource {
             id: "line".into(),
+            unit: "capacity units".into(),
             capacity: capacity.to_vec(),
             overtime_capacity: overtime.to_vec(),
             overtime_cost,

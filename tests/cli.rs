@@ -370,7 +370,7 @@ fn out_writes_plan_and_comparison_and_refuses_an_existing_folder() {
     let mut lines = plan_csv.lines();
     assert_eq!(
         lines.next(),
-        Some("item,period,date,release_period,release_date,quantity,kind")
+        Some("item,period,date,release_period,release_date,quantity,kind,unit")
     );
     assert_eq!(
         lines.count(),
@@ -670,7 +670,7 @@ fn firm_orders_and_a_freeze_reach_every_output_and_check() {
     assert!((number(&report, "best_cost") - plan_cost).abs() < 1e-9);
     // A proposal that releases a new order in the frozen period 1.
     let inside = parent.path().join("inside.csv");
-    std::fs::write(&inside, format!("{plan_csv}A,1,,,,5,planned\n")).expect("written");
+    std::fs::write(&inside, format!("{plan_csv}A,1,,,,5,planned,units\n")).expect("written");
     let checked = lotwright(&[
         "check",
         path(dir.path()),

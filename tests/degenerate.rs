@@ -106,6 +106,7 @@ fn routed(it: Item, capacity: f64) -> Scenario {
     let mut s = scenario(vec![it]);
     s.resources = vec![Resource {
         id: "R".into(),
+        unit: "capacity units".into(),
         capacity: vec![capacity; periods],
         overtime_capacity: vec![0.0; periods],
         overtime_cost: 0.0,

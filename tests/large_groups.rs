@@ -53,6 +53,7 @@ fn group(demand: Vec<Vec<u32>>, costs: Vec<(u32, u32)>, both: Vec<bool>, load: f
     }
     let machine = |id: &str, overtime: f64| Resource {
         id: id.into(),
+        unit: "capacity units".into(),
         capacity: vec![capacity; periods],
         overtime_capacity: vec![overtime; periods],
         overtime_cost: 3.0,

@@ -36,6 +36,7 @@ fn scenario(items: Vec<Item>, resources: Vec<Resource>, routings: Vec<Routing>) 
 fn resource(capacity: f64, periods: usize) -> Resource {
     Resource {
         id: "R".into(),
+        unit: "capacity units".into(),
         capacity: vec![capacity; periods],
         overtime_capacity: vec![0.0; periods],
         overtime_cost: 0.0,

@@ -296,6 +296,7 @@ fn the_joint_plan_is_the_cheapest_whole_plan_on_tiny_bills() {
             // The component's machine, tight enough to bind.
             scenario.resources.push(Resource {
                 id: "M".into(),
+                unit: "capacity units".into(),
                 capacity: vec![4.0; periods],
                 overtime_capacity: vec![1.0; periods],
                 overtime_cost: 3.0,

@@ -66,8 +66,8 @@ fn a_component_shortage_is_pegged_to_the_parent_orders_it_leaves_short() {
     assert_eq!(
         v["shortages"],
         json!([
-            {"item": "C", "period": 2, "quantity": 16.0, "own_demand": 0.0, "parent_orders": short_for},
-            {"item": "C", "period": 3, "quantity": 16.0, "own_demand": 0.0, "parent_orders": short_for},
+            {"item": "C", "period": 2, "quantity": 16.0, "unit": "units", "own_demand": 0.0, "parent_orders": short_for},
+            {"item": "C", "period": 3, "quantity": 16.0, "unit": "units", "own_demand": 0.0, "parent_orders": short_for},
         ])
     );
     assert_eq!(
@@ -174,7 +174,7 @@ fn the_spreadsheet_carries_the_level_and_the_parent_orders() {
         .find(|r| r[0].get_string() == Some("C") && r[1] == Data::Float(2.0))
         .expect("C's week 2");
     assert_eq!(c2[col("Level")], Data::Float(1.0));
-    assert_eq!(c2[col("Dependent requirement (units)")], Data::Float(25.0));
+    assert_eq!(c2[col("Dependent requirement")], Data::Float(25.0));
     assert_eq!(
         c2[col("Parent orders (parent, period: units)")].get_string(),
         Some("P period 3: 20; Q period 2: 5")

@@ -121,6 +121,7 @@ fn scenario(items: Vec<Item>, frozen: usize, capacity: Option<(f64, f64, f64)>) 
         Some((regular, overtime, setup_time)) => (
             vec![Resource {
                 id: "R".into(),
+                unit: "capacity units".into(),
                 capacity: vec![regular; periods],
                 overtime_capacity: vec![overtime; periods],
                 overtime_cost: 3.0,

@@ -58,7 +58,8 @@ fn out_writes_every_file_and_records_match_the_json() {
             "shortage",
             "backlog",
             "firm_receipts",
-            "firm_releases"
+            "firm_releases",
+            "unit"
         ]
     );
     assert_eq!(records.len(), 1 + 3 * 8, "one row per item and bucket");
@@ -98,7 +99,8 @@ fn out_writes_every_file_and_records_match_the_json() {
             "load",
             "capacity",
             "overtime_capacity",
-            "overtime"
+            "overtime",
+            "unit"
         ]
     );
     assert_eq!(load.len(), 1 + 8);

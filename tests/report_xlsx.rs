@@ -111,7 +111,7 @@ fn order_dates_are_dates_and_quantities_match() {
     let json_orders = book.json["orders"].as_array().unwrap();
     assert_eq!(orders.height(), 1 + json_orders.len());
     let date = column(&orders, "Receipt date");
-    let quantity = column(&orders, "Quantity (units)");
+    let quantity = column(&orders, "Quantity");
     for (row, order) in orders.rows().skip(1).zip(json_orders) {
         assert_eq!(row[0].get_string(), order["item"].as_str());
         match &row[date] {

@@ -23,6 +23,7 @@ fn scenario(items: Vec<Item>, capacity: Option<f64>) -> Scenario {
         Some(c) => (
             vec![Resource {
                 id: "R".into(),
+                unit: "capacity units".into(),
                 capacity: vec![c; periods],
                 overtime_capacity: vec![0.0; periods],
                 overtime_cost: 0.0,

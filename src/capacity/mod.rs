@@ -249,6 +249,7 @@ mod tests {
         }
         let resource = |id: &str| Resource {
             id: id.into(),
+            unit: "capacity units".into(),
             capacity: vec![10.0; 2],
             overtime_capacity: vec![0.0; 2],
             overtime_cost: 0.0,

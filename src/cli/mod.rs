@@ -13,6 +13,7 @@ use clap::{Args, Parser, Subcommand};
 use lotwright::error::{Error, Result};
 use lotwright::report::{self, table::Detail};
 use lotwright::single::eoq;
+use lotwright::single::eoq_units::{self, TimeUnit};
 use lotwright::solve::{self, Status};
 
 #[derive(Parser)]
@@ -283,17 +284,34 @@ struct RollArgs {
     threads: Option<u32>,
 }
 
+/// Demand, holding cost, production rate and backorder cost must all be
+/// given per the same time unit (all per year, or all per week): a yearly
+/// demand with a weekly holding cost gives a lot about 7 times too large.
+/// Name the unit with --time-unit to have the result checked against the
+/// calendar; the command warns when the time between orders is under a
+/// day or over a year, or (with --unit-cost) when the holding cost is not
+/// 2 to 100 % of the unit cost a year.
 #[derive(Args)]
 struct EoqArgs {
-    /// Demand per time unit (for example per year).
+    /// Demand per time unit (for example per year); the same time unit as
+    /// the holding cost.
     #[arg(long)]
     demand: f64,
     /// Cost of one setup or order.
     #[arg(long, alias = "order-cost")]
     setup_cost: f64,
-    /// Holding cost per unit per time unit.
+    /// Holding cost per unit per time unit: the same time unit as the
+    /// demand (per year with a yearly demand).
     #[arg(long)]
     holding_cost: Option<f64>,
+    /// The time unit demand and holding cost share: day, week, month or
+    /// year. Optional; with it the cycle is also given in days and checked.
+    #[arg(long, value_name = "UNIT", value_parser = ["day", "week", "month", "year"])]
+    time_unit: Option<String>,
+    /// Cost of one unit, to check the holding cost against (with
+    /// --time-unit); the price paid is used under --price-breaks.
+    #[arg(long)]
+    unit_cost: Option<f64>,
     /// Finite production rate, per time unit (the EPQ model).
     #[arg(long)]
     production_rate: Option<f64>,
@@ -673,11 +691,25 @@ fn eoq_command(args: EoqArgs) -> Result<i32> {
         lot: args.lot,
     };
     let result = eoq::solve(&input)?;
+    let time_unit = args.time_unit.as_deref().map(|unit| match unit {
+        "day" => TimeUnit::Day,
+        "week" => TimeUnit::Week,
+        "month" => TimeUnit::Month,
+        _ => TimeUnit::Year,
+    });
+    if let Some(cost) = args.unit_cost {
+        if !(cost.is_finite() && cost > 0.0) {
+            return Err(Error::Usage(format!(
+                "--unit-cost {cost} must be a number above 0"
+            )));
+        }
+    }
+    let hints = eoq_units::check(&result, time_unit, args.unit_cost);
     if args.json {
-        let value = serde_json::to_value(&result).map_err(|e| Error::Internal(e.to_string()))?;
+        let value = report::eoq::json(&result, time_unit, &hints)?;
         emit_json(&value)?;
     } else {
-        emit(&report::eoq::text(&result))?;
+        emit(&report::eoq::text(&result, time_unit, &hints))?;
     }
     Ok(0)
 }

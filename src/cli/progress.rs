@@ -101,7 +101,7 @@ impl Progress for Spinner {
                     .and_then(last_progress)
                 {
                     bar.set_message(format!(
-                        "{head}: solver objective {best}, bound {bound}, gap {gap}"
+                        "{head}: best plan so far {best}, bound {bound}, gap {gap}"
                     ));
                 }
                 std::thread::sleep(Duration::from_millis(500));

@@ -29,6 +29,9 @@ pub struct CsvFile {
 }
 
 /// A cell with its place, ready to be parsed.
+/// The longest unit of measure accepted (it heads table columns).
+pub const MAX_UNIT_CHARS: usize = 24;
+
 pub struct Cell<'a> {
     pub text: &'a str,
     location: Location,
@@ -189,6 +192,30 @@ impl<'a> Cell<'a> {
     }
 
     /// A number that is zero or more.
+    /// A unit of measure (kegs, cartons, kg, hours): it names what is
+    /// counted, so it starts with a letter (a number here is a value in the
+    /// wrong column), holds no control characters and stays short enough
+    /// for a table header.
+    pub fn unit(&self) -> Result<String> {
+        let text = self.text;
+        if !text.chars().next().is_some_and(char::is_alphabetic) {
+            return Err(self.error(format!(
+                "{text} is not a unit; a unit names what is counted and starts with a letter, such as pieces, kegs, cartons, kg or hours"
+            )));
+        }
+        if text.chars().any(char::is_control) {
+            return Err(self.error(
+                "the unit holds a control character (a tab or line break); write it on one line, such as cartons",
+            ));
+        }
+        if text.chars().count() > MAX_UNIT_CHARS {
+            return Err(self.error(format!(
+                "the unit {text} is longer than {MAX_UNIT_CHARS} characters; use a short name, such as kg or cartons, and put notes in an x_ column"
+            )));
+        }
+        Ok(text.to_string())
+    }
+
     pub fn non_negative(&self) -> Result<f64> {
         let value = self.number()?;
         if value < 0.0 {

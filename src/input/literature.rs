@@ -211,6 +211,7 @@ fn scenario(name: &str, capacity: f64, rows: &[[f64; 4]], demand: &[Vec<f64>]) -
         items,
         resources: vec![Resource {
             id: "machine".into(),
+            unit: "capacity units".into(),
             capacity: vec![capacity; periods],
             overtime_capacity: vec![0.0; periods],
             overtime_cost: 0.0,

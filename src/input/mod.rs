@@ -14,7 +14,10 @@ use std::collections::HashMap;
 use std::path::Path;
 
 use crate::error::{Error, Location, Result};
-use crate::model::{Calendar, DatePlace, Item, Resource, Routing, Scenario};
+use crate::model::{
+    Calendar, DatePlace, Item, Resource, Routing, Scenario, DEFAULT_CAPACITY_UNIT,
+    DEFAULT_ITEM_UNIT,
+};
 
 const ITEMS: Schema = Schema {
     known: &[
@@ -32,6 +35,7 @@ const ITEMS: Schema = Schema {
         "backlog_cost",
         "fixed_lot",
         "ending_stock",
+        "unit",
     ],
     required: &["item", "setup_cost"],
 };
@@ -57,6 +61,7 @@ const RESOURCES: Schema = Schema {
         "overtime_capacity",
         "overtime_cost",
         "capacity_cost",
+        "unit",
     ],
     required: &["resource", "capacity"],
 };
@@ -169,6 +174,14 @@ fn optional(file: &CsvFile, record: &Record, name: &str, default: f64) -> Result
     match file.cell(record, name) {
         Some(cell) => cell.non_negative(),
         None => Ok(default),
+    }
+}
+
+/// The row's `unit` cell, or `default` when it is empty or absent.
+fn unit_of(file: &CsvFile, record: &Record, default: &str) -> Result<String> {
+    match file.cell(record, "unit") {
+        Some(cell) => cell.unit(),
+        None => Ok(default.to_string()),
     }
 }
 
@@ -286,6 +299,7 @@ fn read_items(dir: &Path, calendar: &Calendar) -> Result<(Vec<Item>, Vec<Option<
         let unit = vec![unit_cost; periods];
         items.push(Item {
             id,
+            unit: unit_of(&file, record, DEFAULT_ITEM_UNIT)?,
             setup_cost: vec![setup_cost; periods],
             nominal_setup_cost: setup_cost,
             nominal_holding_cost: match holding {
@@ -467,6 +481,7 @@ fn read_resources(dir: &Path, calendar: &Calendar) -> Result<Vec<Resource>> {
             .transpose()?;
         resources.push(Resource {
             id,
+            unit: unit_of(&file, record, DEFAULT_CAPACITY_UNIT)?,
             capacity: vec![capacity; calendar.periods],
             overtime_capacity: vec![overtime_capacity; calendar.periods],
             overtime_cost,

@@ -18,6 +18,7 @@ const ORDERS: Schema = Schema {
         "release_date",
         "quantity",
         "kind",
+        "unit",
     ],
     required: &["item", "quantity"],
 };
@@ -146,6 +147,15 @@ fn read_rows(path: &Path, scenario: &Scenario, missing: &str, firm: bool) -> Res
                 cell.text
             ))
         })?;
+        if let Some(cell) = file.cell(record, "unit") {
+            let unit = &scenario.items[item].unit;
+            if cell.text != unit {
+                return Err(cell.error(format!(
+                    "item {} is counted in {unit} (items.csv), not in {}; convert the quantity to {unit}, or fix the unit in items.csv",
+                    scenario.items[item].id, cell.text
+                )));
+            }
+        }
         let receipt = receipt_bucket(&file, record, calendar)?;
         let quantity_cell = file.required(record, "quantity")?;
         let quantity = quantity_cell.non_negative()?;

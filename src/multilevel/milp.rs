@@ -118,6 +118,10 @@ pub fn useful_receipts(scenario: &Scenario) -> Vec<Vec<f64>> {
                 let lead = scenario.items[line.parent].lead_time;
                 if j + lead < periods {
                     parents += line.per_parent_unit() * bound[line.parent][j + lead];
+                    if scenario.rounds_issue(line) {
+                        // Each release bucket's issue rounds up by under one.
+                        parents += (periods - j) as f64;
+                    }
                 }
             }
             bound[i][j] = own + floor + slack + parents;
@@ -240,9 +244,40 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
             }
             for line in scenario.bom.iter().filter(|line| line.component == i) {
                 let lead = scenario.items[line.parent].lead_time;
-                if let Some(Some((_, x))) = receipt[line.parent].get(t + lead) {
-                    inflow -= line.per_parent_unit() * *x;
+                let Some(Some((_, x))) = receipt[line.parent].get(t + lead) else {
+                    continue;
+                };
+                let per = line.per_parent_unit();
+                if !scenario.rounds_issue(line) {
+                    inflow -= per * *x;
+                    continue;
                 }
+                // Whole components are issued whole (`Scenario::issue`):
+                // an integer at least the exact call of the bucket's
+                // release, less what the firm orders' rounded issue
+                // (in `firm_dependent`) already takes.
+                let f = firm[line.parent][t];
+                let firm_issue = if f > 0.0 {
+                    scenario.issue(line, f)
+                } else {
+                    0.0
+                };
+                let issued = if options.relax || options.relax_multiples {
+                    vars.add(variable().min(0.0))
+                } else {
+                    vars.add(variable().integer().min(0.0))
+                };
+                constraints.push(constraint::geq(issued, per * *x + (per * f - firm_issue)));
+                if let Some(plan) = start {
+                    let q = plan.receipts[line.parent][t + lead];
+                    let total = if q + f > 0.0 {
+                        scenario.issue(line, q + f)
+                    } else {
+                        0.0
+                    };
+                    start_values.push((issued, total - firm_issue));
+                }
+                inflow -= issued;
             }
             let stock = if item.allows_backlog() {
                 let floor = if last && reachable {
@@ -475,7 +510,11 @@ fn echelon_inequalities(
             .iter()
             .filter(|line| line.component == i)
             .collect();
-        eligible[i] = !item.allows_backlog() && parents.iter().all(|line| eligible[line.parent]);
+        // Rounded issues are not linear in the parents' echelon stock.
+        eligible[i] = !item.allows_backlog()
+            && parents
+                .iter()
+                .all(|line| eligible[line.parent] && !scenario.rounds_issue(line));
         if !eligible[i] {
             continue;
         }
@@ -531,7 +570,9 @@ fn whole_requirements(scenario: &Scenario) -> Vec<bool> {
     let mut whole: Vec<bool> = scenario.items.iter().map(has_whole_data).collect();
     for i in scenario.level_order() {
         for line in scenario.bom.iter().filter(|l| l.component == i) {
-            whole[i] &= whole[line.parent] && line.per_parent_unit().fract() == 0.0;
+            // A rounded issue is whole whatever the parent's quantities.
+            whole[i] &= scenario.rounds_issue(line)
+                || (whole[line.parent] && line.per_parent_unit().fract() == 0.0);
         }
     }
     whole

@@ -33,15 +33,29 @@ pub fn pegs(scenario: &Scenario, evaluation: &Evaluation) -> Vec<Peg> {
     for line in &scenario.bom {
         let record = &evaluation.items[line.parent];
         let lead = scenario.items[line.parent].lead_time;
-        let per = line.per_parent_unit();
         let releases = record.firm_releases.iter().zip(&record.planned_releases);
         for (t, (&firm, &planned)) in releases.enumerate() {
-            for (quantity, is_firm) in [(firm, true), (planned, false)] {
+            // The bucket's issue is rounded once (`Scenario::issue`): the
+            // firm order's share first, the planned order the rest.
+            let firm_issue = if firm > 0.0 {
+                scenario.issue(line, firm)
+            } else {
+                0.0
+            };
+            let total_issue = if firm + planned > 0.0 {
+                scenario.issue(line, firm + planned)
+            } else {
+                0.0
+            };
+            for (quantity, issued, is_firm) in [
+                (firm, firm_issue, true),
+                (planned, total_issue - firm_issue, false),
+            ] {
                 if quantity > 0.0 {
                     pegs.push(Peg {
                         component: line.component,
                         bucket: t,
-                        quantity: per * quantity,
+                        quantity: issued,
                         parent: line.parent,
                         parent_receipt: t + lead,
                         parent_quantity: quantity,

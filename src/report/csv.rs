@@ -29,8 +29,8 @@ fn number(value: f64) -> String {
 }
 
 /// plan.csv: `item, period, date, release_period, release_date, quantity,
-/// kind` (`planned`, or `firm` for the firm orders the plan kept; `check`
-/// leaves the firm rows to orders-firm.csv).
+/// kind, unit` (`planned`, or `firm` for the firm orders the plan kept;
+/// `check` leaves the firm rows to orders-firm.csv; `unit` is the item's).
 pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
     let mut rows = vec![[
         "item",
@@ -40,6 +40,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
         "release_date",
         "quantity",
         "kind",
+        "unit",
     ]
     .iter()
     .map(|s| s.to_string())
@@ -53,6 +54,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
             order.release_date,
             number(order.quantity),
             order.kind.to_string(),
+            order.unit,
         ]);
     }
     write_rows(rows)
@@ -140,6 +142,7 @@ pub fn records(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
     if bom {
         header.extend(["level", "dependent_requirement", "parent_orders"].map(String::from));
     }
+    header.push("unit".to_string());
     let levels = scenario.low_level_codes();
     let pegged = pegs(scenario, evaluation);
     let mut rows = vec![header];
@@ -165,6 +168,7 @@ pub fn records(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
                 row.push(number(record.dependent_requirement[t]));
                 row.push(parent_orders_text(scenario, &pegged, i, t));
             }
+            row.push(item.unit.clone());
             rows.push(row);
         }
     }
@@ -184,6 +188,7 @@ pub fn load(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
         "capacity",
         "overtime_capacity",
         "overtime",
+        "unit",
     ];
     let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
     for (resource, load) in scenario
@@ -202,6 +207,7 @@ pub fn load(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
                 number(load.capacity[t]),
                 number(load.overtime_capacity[t]),
                 number(load.overtime[t]),
+                resource.unit.clone(),
             ]);
         }
     }

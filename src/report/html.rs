@@ -15,6 +15,15 @@ mod words;
 
 const STYLE: &str = include_str!("report.css");
 
+/// The capacity unit both scenarios' resources share, if any.
+fn shared_capacity_unit<'a>(
+    a: &'a crate::model::Scenario,
+    b: &'a crate::model::Scenario,
+) -> Option<&'a str> {
+    let unit = a.capacity_unit()?;
+    (b.resources.is_empty() || b.capacity_unit() == Some(unit)).then_some(unit)
+}
+
 /// Money with the scenario's currency: `1,234.50 EUR`.
 struct Cash<'a>(Option<&'a str>);
 
@@ -351,12 +360,20 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
             ea.ending_stock_value(),
             eb.ending_stock_value(),
         ),
-        row(
-            "overtime used",
-            units(ea.overtime_used()),
-            units(eb.overtime_used()),
-            units(eb.overtime_used() - ea.overtime_used()),
-        ),
+        match shared_capacity_unit(&a.scenario, &b.scenario) {
+            Some(unit) => row(
+                &format!("overtime used ({unit})"),
+                units(ea.overtime_used()),
+                units(eb.overtime_used()),
+                units(eb.overtime_used() - ea.overtime_used()),
+            ),
+            None => row(
+                "overtime used (resources in different units: see the overtime cost)",
+                "-".into(),
+                "-".into(),
+                String::new(),
+            ),
+        },
         row(
             "fill rate",
             percent(ea.fill_rate(), 1),
@@ -368,22 +385,45 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
     out.push_str("</section>");
     // Charts over time need one calendar.
     if a.scenario.calendar == b.scenario.calendar {
-        let total = |e: &crate::eval::Evaluation| -> Vec<f64> {
+        // Counts add up only in one unit; otherwise stock is valued.
+        let counted =
+            a.scenario.stock_unit().is_some() && a.scenario.stock_unit() == b.scenario.stock_unit();
+        let total = |scenario: &crate::model::Scenario, e: &crate::eval::Evaluation| -> Vec<f64> {
             (0..a.scenario.periods())
-                .map(|t| e.items.iter().map(|r| r.on_hand[t].max(0.0)).sum())
+                .map(|t| {
+                    e.items
+                        .iter()
+                        .zip(&scenario.items)
+                        .map(|(r, item)| {
+                            let price = if counted { 1.0 } else { item.unit_cost[t] };
+                            r.on_hand[t].max(0.0) * price
+                        })
+                        .sum()
+                })
                 .collect()
         };
-        let (sa, sb) = (total(ea), total(eb));
+        let (sa, sb) = (total(&a.scenario, ea), total(&b.scenario, eb));
+        let what = match a.scenario.stock_unit().filter(|_| counted) {
+            Some(unit) => format!("Stock on hand ({unit}) at the end of each bucket, all items together."),
+            None => "Stock on hand at the end of each bucket, all items together, as value at unit cost (the items count in different units).".to_string(),
+        };
         let _ = write!(
             out,
-            "<section><h2>Stock over time</h2><p>Units on hand at the end of each bucket, all items together.</p><figure>{}</figure></section>",
+            "<section><h2>Stock over time</h2><p>{}</p><figure>{}</figure></section>",
+            escape(&what),
             charts::steps(
                 &a.scenario,
                 "compare-stock",
                 "Stock on hand at the end of each bucket, A and B",
                 &[
-                    charts::Series { label: "A".into(), values: &sa },
-                    charts::Series { label: "B".into(), values: &sb },
+                    charts::Series {
+                        label: "A".into(),
+                        values: &sa
+                    },
+                    charts::Series {
+                        label: "B".into(),
+                        values: &sb
+                    },
                 ],
             )
         );

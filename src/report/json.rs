@@ -11,6 +11,59 @@ use crate::model::{Plan, Scenario};
 use crate::multilevel::peg::{pegs, shortage_causes, Peg};
 use crate::solve::{cautions, MethodResult, Outcome};
 
+/// The unit of every item and resource, by id.
+fn units(scenario: &Scenario) -> Value {
+    let items: serde_json::Map<String, Value> = scenario
+        .items
+        .iter()
+        .map(|item| (item.id.clone(), json!(item.unit)))
+        .collect();
+    let resources: serde_json::Map<String, Value> = scenario
+        .resources
+        .iter()
+        .map(|r| (r.id.clone(), json!(r.unit)))
+        .collect();
+    json!({ "items": items, "resources": resources })
+}
+
+/// Adds the unit of the named item (key `item`) or resource (key
+/// `resource`) to each entry of a list of faults.
+fn add_units(scenario: &Scenario, list: &mut Value) {
+    let Value::Array(entries) = list else {
+        return;
+    };
+    for entry in entries {
+        let Value::Object(map) = entry else {
+            continue;
+        };
+        let unit = if let Some(id) = map.get("item").and_then(Value::as_str) {
+            scenario
+                .items
+                .iter()
+                .find(|i| i.id == id)
+                .map(|i| i.unit.clone())
+        } else if let Some(id) = map.get("resource").and_then(Value::as_str) {
+            scenario
+                .resources
+                .iter()
+                .find(|r| r.id == id)
+                .map(|r| r.unit.clone())
+        } else {
+            None
+        };
+        if let Some(unit) = unit {
+            map.insert("unit".into(), json!(unit));
+        }
+    }
+}
+
+/// Overtime used, summed over resources: a count only when they share a
+/// unit (or there are none), else `null` (the overtime cost stands).
+fn overtime_used(scenario: &Scenario, evaluation: &Evaluation) -> Option<f64> {
+    (scenario.resources.is_empty() || scenario.capacity_unit().is_some())
+        .then(|| clean(evaluation.overtime_used()))
+}
+
 fn costs(costs: &Costs) -> Value {
     json!({
         "setup": clean(costs.setup),
@@ -34,6 +87,8 @@ pub struct Order {
     /// `planned` (the method's order) or `firm` (orders-firm.csv, kept as
     /// it is).
     pub kind: &'static str,
+    /// The item's unit of measure (items.csv `unit`).
+    pub unit: String,
 }
 
 /// The orders of a plan and the scenario's firm orders, by item then
@@ -57,6 +112,7 @@ pub fn orders(scenario: &Scenario, plan: &Plan) -> Vec<Order> {
                             .to_string(),
                         quantity: clean(quantity),
                         kind,
+                        unit: item.unit.clone(),
                     });
                 }
             }
@@ -121,6 +177,7 @@ fn faults(scenario: &Scenario, evaluation: &Evaluation, pegs: &[Peg]) -> Value {
     let mut violations = serde_json::to_value(&evaluation.violations).unwrap_or(Value::Null);
     for value in [&mut shortages, &mut overloads, &mut violations] {
         clean_numbers(value);
+        add_units(scenario, value);
     }
     json!({ "shortages": shortages, "overloads": overloads, "violations": violations })
 }
@@ -147,6 +204,12 @@ fn row(scenario: &Scenario, result: &MethodResult, reference: Option<f64>) -> Va
     let extra = reference
         .filter(|r| r.abs() > 1e-9)
         .map(|r| clean(100.0 * (total - r) / r.abs()));
+    // Stock summed across items is a count only when they share a unit;
+    // otherwise it is `null` and the values beside it stand.
+    let stock_unit = scenario.stock_unit();
+    let counted = |v: f64| stock_unit.map(|_| clean(v));
+    let overtime_unit = scenario.capacity_unit();
+    let overtime = overtime_used(scenario, evaluation);
     json!({
         "method": result.method,
         "status": result.status.name(),
@@ -154,13 +217,15 @@ fn row(scenario: &Scenario, result: &MethodResult, reference: Option<f64>) -> Va
         "total_cost": clean(total),
         "costs": costs(&evaluation.costs),
         "setups": evaluation.setups,
-        "average_stock": clean(evaluation.average_stock()),
+        "stock_unit": stock_unit,
+        "average_stock": counted(evaluation.average_stock()),
         "average_stock_value": clean(evaluation.average_stock_value(scenario)),
-        "ending_stock": clean(evaluation.items.iter().map(|r| r.ending_stock).sum()),
+        "ending_stock": counted(evaluation.items.iter().map(|r| r.ending_stock).sum()),
         "ending_stock_value": clean(evaluation.ending_stock_value()),
         "inventory_turns": evaluation.inventory_turns(scenario).map(clean),
         "buckets_of_cover": evaluation.buckets_of_cover().map(clean),
-        "overtime_used": clean(evaluation.overtime_used()),
+        "overtime_unit": overtime_unit,
+        "overtime_used": overtime,
         "fill_rate": clean(evaluation.fill_rate()),
         "extra_cost_percent": extra,
         "notes": result.notes,
@@ -184,6 +249,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Value {
         .map(|(item, record)| {
             json!({
                 "item": item.id,
+                "unit": item.unit,
                 "costs": costs(&record.costs),
                 "setups": record.setups,
                 "average_stock": clean(record.average_stock),
@@ -200,6 +266,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Value {
         "periods": scenario.periods(),
         "frozen_periods": scenario.frozen,
         "currency": scenario.currency,
+        "units": units(scenario),
         "method": chosen.method,
         "status": chosen.status.name(),
         "solver": chosen.solver(),
@@ -232,6 +299,7 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> Value {
     let pegged = pegs(scenario, evaluation);
     let mut value = json!({
         "scenario": scenario.name,
+        "units": units(scenario),
         "feasible": evaluation.feasible,
         "total_cost": clean(evaluation.total_cost()),
         "costs": costs(&evaluation.costs),
@@ -272,11 +340,19 @@ fn side(side: &crate::compare::Side) -> Value {
         "setups": evaluation.setups,
         "average_stock_value": clean(evaluation.average_stock_value(&side.scenario)),
         "ending_stock_value": clean(evaluation.ending_stock_value()),
-        "overtime_used": clean(evaluation.overtime_used()),
+        "overtime_used": overtime_used(&side.scenario, evaluation),
         "fill_rate": clean(evaluation.fill_rate()),
         "notes": result.notes,
         "cautions": cautions(&side.scenario, result),
     })
+}
+
+/// The unit of an item or resource in scenario A, else in B.
+fn unit_in<'a>(
+    c: &'a crate::compare::Comparison,
+    find: impl Fn(&'a Scenario) -> Option<&'a String>,
+) -> Option<&'a String> {
+    find(&c.a.scenario).or_else(|| find(&c.b.scenario))
 }
 
 /// The JSON of `compare`: both sides, their difference (B - A), and the
@@ -304,6 +380,7 @@ pub fn compare(c: &crate::compare::Comparison) -> Value {
             let cost = |f: &Option<crate::compare::ItemFigures>| f.as_ref().map_or(0.0, |f| f.cost);
             json!({
                 "item": row.id,
+                "unit": unit_in(c, |s| s.items.iter().find(|i| i.id == row.id).map(|i| &i.unit)),
                 "a": figures(&row.a),
                 "b": figures(&row.b),
                 "cost_difference": clean(cost(&row.b) - cost(&row.a)),
@@ -325,7 +402,12 @@ pub fn compare(c: &crate::compare::Comparison) -> Value {
                     })
                 })
             };
-            json!({ "resource": row.id, "a": figures(&row.a), "b": figures(&row.b) })
+            json!({
+                "resource": row.id,
+                "unit": unit_in(c, |s| s.resources.iter().find(|r| r.id == row.id).map(|r| &r.unit)),
+                "a": figures(&row.a),
+                "b": figures(&row.b),
+            })
         })
         .collect();
     json!({
@@ -342,7 +424,9 @@ pub fn compare(c: &crate::compare::Comparison) -> Value {
             },
             "setups": eb.setups as i64 - ea.setups as i64,
             "average_stock_value": diff(ea.average_stock_value(&c.a.scenario), eb.average_stock_value(&c.b.scenario)),
-            "overtime_used": diff(ea.overtime_used(), eb.overtime_used()),
+            "overtime_used": overtime_used(&c.a.scenario, ea)
+                .zip(overtime_used(&c.b.scenario, eb))
+                .map(|(x, y)| clean(y - x)),
             "least_cost_range": c.difference_range().map(|(low, high)| [clean(low), clean(high)]),
             "within_gaps": c.within_gaps(),
         },

@@ -12,6 +12,16 @@ mod svg;
 pub mod table;
 pub mod xlsx;
 
+/// A count with its noun, singular for one: "1 setup", "3 setups",
+/// "0 items". The one place outputs make a plural.
+pub fn count(n: usize, noun: &str) -> String {
+    if n == 1 {
+        format!("1 {noun}")
+    } else {
+        format!("{n} {noun}s")
+    }
+}
+
 /// A quantity as a planner reads it: whole numbers without decimals, others
 /// with up to three.
 pub fn quantity(value: f64) -> String {

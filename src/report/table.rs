@@ -3,7 +3,7 @@
 
 use std::fmt::Write;
 
-use super::{money, quantity};
+use super::{count, money, quantity};
 use crate::check::CheckReport;
 use crate::eval::{Evaluation, ViolationKind};
 use crate::model::Scenario;
@@ -118,15 +118,6 @@ fn status_words(scenario: &Scenario, result: &MethodResult) -> String {
     }
 }
 
-/// "1 item", "3 items".
-fn count(n: usize, noun: &str) -> String {
-    if n == 1 {
-        format!("1 {noun}")
-    } else {
-        format!("{n} {noun}s")
-    }
-}
-
 fn heading(scenario: &Scenario, out: &mut String) {
     let calendar = &scenario.calendar;
     let _ = writeln!(
@@ -144,6 +135,35 @@ fn heading(scenario: &Scenario, out: &mut String) {
             .map(|c| format!(", costs in {c}"))
             .unwrap_or_default()
     );
+}
+
+/// The unit of an item by id (empty for an id the scenario lacks).
+fn item_unit(scenario: &Scenario, id: &str) -> String {
+    scenario
+        .items
+        .iter()
+        .find(|i| i.id == id)
+        .map_or_else(String::new, |i| i.unit.clone())
+}
+
+/// The unit of a resource by id (empty for an id the scenario lacks).
+fn resource_unit(scenario: &Scenario, id: &str) -> String {
+    scenario
+        .resources
+        .iter()
+        .find(|r| r.id == id)
+        .map_or_else(String::new, |r| r.unit.clone())
+}
+
+/// The distinct units, in order of first appearance: "kegs, cartons, kg".
+fn units_listed<'a>(units: impl Iterator<Item = &'a str>) -> String {
+    let mut seen: Vec<&str> = Vec::new();
+    for unit in units {
+        if !seen.contains(&unit) {
+            seen.push(unit);
+        }
+    }
+    seen.join(", ")
 }
 
 /// The whole terminal report of `plan`.
@@ -238,15 +258,18 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
         .find(|r| r.is_exact() && r.evaluation.feasible)
         .map(|r| r.total_cost());
     let _ = writeln!(out, "\nStock and setups by method");
-    let mut grid = Grid::new(&[
-        "method",
-        "setups",
-        "avg stock",
-        "avg stock value",
-        "end stock",
-        "end stock value",
-        "vs exact plan",
-    ]);
+    // Stock summed over items is a count only when they share a unit.
+    let unit = scenario.stock_unit();
+    let mut header = vec!["method", "setups"];
+    if unit.is_some() {
+        header.push("avg stock");
+    }
+    header.push("avg stock value");
+    if unit.is_some() {
+        header.push("end stock");
+    }
+    header.extend(["end stock value", "vs exact plan"]);
+    let mut grid = Grid::new(&header);
     for r in rows {
         let e = &r.evaluation;
         let extra = match reference {
@@ -255,36 +278,58 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
             }
             _ => "-".to_string(),
         };
-        grid.push(vec![
-            r.method.to_string(),
-            e.setups.to_string(),
-            quantity((e.average_stock() * 10.0).round() / 10.0),
-            money(e.average_stock_value(scenario)),
-            quantity(e.items.iter().map(|i| i.ending_stock).sum()),
-            money(e.ending_stock_value()),
-            extra,
-        ]);
+        let mut row = vec![r.method.to_string(), e.setups.to_string()];
+        if unit.is_some() {
+            row.push(quantity((e.average_stock() * 10.0).round() / 10.0));
+        }
+        row.push(money(e.average_stock_value(scenario)));
+        if unit.is_some() {
+            row.push(quantity(e.items.iter().map(|i| i.ending_stock).sum()));
+        }
+        row.extend([money(e.ending_stock_value()), extra]);
+        grid.push(row);
     }
     grid.render(out);
+    if let Some(unit) = unit.filter(|&u| u != crate::model::DEFAULT_ITEM_UNIT) {
+        let _ = writeln!(out, "  stock counted in {unit}");
+    }
+    if unit.is_none() {
+        wrap(
+            &format!(
+                "stock is shown as value only: the items count in different units ({})",
+                units_listed(scenario.items.iter().map(|i| i.unit.as_str()))
+            ),
+            "  ",
+            out,
+        );
+    }
     let cover = format!("{}s of cover", scenario.calendar.kind.name());
     let _ = writeln!(out, "\nService and stock turns by method");
-    let mut grid = Grid::new(&[
-        "method",
-        "fill rate",
-        "turns a year",
-        &cover,
-        "overtime used",
-    ]);
+    // Overtime summed over resources is a count only in one unit.
+    let overtime_unit = if scenario.resources.is_empty() {
+        Some(String::new())
+    } else {
+        scenario.capacity_unit().map(|u| format!(" ({u})"))
+    };
+    let overtime = format!("overtime used{}", overtime_unit.as_deref().unwrap_or(""));
+    let mut header = vec!["method", "fill rate", "turns a year", &cover];
+    if overtime_unit.is_some() {
+        header.push(&overtime);
+    }
+    let mut grid = Grid::new(&header);
     for r in rows {
         let e = &r.evaluation;
         let or_dash = |v: Option<f64>| v.map_or("-".to_string(), |v| format!("{v:.1}"));
-        grid.push(vec![
+        let mut row = vec![
             r.method.to_string(),
             format!("{:.1} %", 100.0 * e.fill_rate()),
             or_dash(e.inventory_turns(scenario)),
             or_dash(e.buckets_of_cover()),
-            quantity((e.overtime_used() * 10.0).round() / 10.0),
-        ]);
+        ];
+        if overtime_unit.is_some() {
+            row.push(quantity((e.overtime_used() * 10.0).round() / 10.0));
+        }
+        grid.push(row);
     }
     grid.render(out);
     for r in rows {
@@ -301,14 +346,19 @@ fn faults(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
         let _ = writeln!(out, "\nShortages");
         let bom = scenario.has_bom();
         let mut grid = if bom {
-            Grid::new(&["item", "period", "short", "leaves short"])
+            Grid::new(&["item", "period", "short", "unit", "leaves short"])
         } else {
-            Grid::new(&["item", "period", "short"])
+            Grid::new(&["item", "period", "short", "unit"])
         };
         let pegged = pegs(scenario, evaluation);
         let causes = shortage_causes(scenario, evaluation, &pegged);
         for (s, cause) in evaluation.shortages.iter().zip(&causes) {
-            let mut row = vec![s.item.clone(), s.period.to_string(), quantity(s.quantity)];
+            let mut row = vec![
+                s.item.clone(),
+                s.period.to_string(),
+                quantity(s.quantity),
+                item_unit(scenario, &s.item),
+            ];
             if bom {
                 let mut whose: Vec<String> = cause
                     .parent_orders
@@ -334,6 +384,7 @@ fn faults(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
             "load",
             "capacity + overtime",
             "over by",
+            "unit",
         ]);
         for o in &evaluation.overloads {
             grid.push(vec![
@@ -342,13 +393,22 @@ fn faults(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
                 quantity(o.load),
                 quantity(o.capacity),
                 quantity(o.excess),
+                resource_unit(scenario, &o.resource),
             ]);
         }
         grid.render(out);
     }
     if !evaluation.violations.is_empty() {
         let _ = writeln!(out, "\nRule breaches");
-        let mut grid = Grid::new(&["item", "period", "what", "quantity", "limit", "binding"]);
+        let mut grid = Grid::new(&[
+            "item",
+            "period",
+            "what",
+            "quantity",
+            "limit",
+            "unit",
+            "breaks plan",
+        ]);
         for v in &evaluation.violations {
             let what = match v.kind {
                 ViolationKind::BelowMinLot => "lot below min_lot",
@@ -365,7 +425,8 @@ fn faults(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
                 what.to_string(),
                 quantity(v.quantity),
                 quantity(v.limit),
-                if v.binding { "yes" } else { "no" }.to_string(),
+                item_unit(scenario, &v.item),
+                if v.binding { "yes" } else { "no: target" }.to_string(),
             ]);
         }
         grid.render(out);
@@ -384,6 +445,7 @@ fn orders(scenario: &Scenario, result: &MethodResult, detail: &Detail, out: &mut
         "release",
         "release date",
         "quantity",
+        "unit",
         "kind",
     ]);
     let rows = super::json::orders(scenario, &result.plan);
@@ -408,6 +470,7 @@ fn orders(scenario: &Scenario, result: &MethodResult, detail: &Detail, out: &mut
             o.release_period.to_string(),
             o.release_date,
             quantity(o.quantity),
+            o.unit,
             o.kind.to_string(),
         ]);
     }
@@ -432,6 +495,7 @@ fn item_summary(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) 
         "total cost",
         "avg stock",
         "end stock",
+        "unit",
         "fill rate",
     ]);
     for (item, record) in scenario
@@ -446,6 +510,7 @@ fn item_summary(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) 
             money(record.costs.total()),
             quantity((record.average_stock * 10.0).round() / 10.0),
             quantity(record.ending_stock),
+            item.unit.clone(),
             format!("{:.1} %", 100.0 * record.fill_rate),
         ]);
     }
@@ -466,15 +531,18 @@ fn records(scenario: &Scenario, evaluation: &Evaluation, i: usize, out: &mut Str
     let record = &evaluation.items[i];
     let _ = writeln!(
         out,
-        "\n{}: {} setups, cost {}, lead time {}, safety stock {}",
+        "\n{} ({}): {}, cost {}, lead time {}, safety stock {}",
         item.id,
-        record.setups,
+        item.unit,
+        count(record.setups, "setup"),
         money(record.costs.total()),
-        item.lead_time,
+        count(item.lead_time, scenario.calendar.kind.name()),
         quantity(item.safety_stock)
     );
     let calendar = &scenario.calendar;
     let periods = scenario.periods();
+    let on_hand: Vec<f64> = record.on_hand.iter().map(|&q| q.max(0.0)).collect();
+    let owed: Vec<f64> = record.on_hand.iter().map(|&q| (-q).max(0.0)).collect();
     let mut lines: Vec<(&str, &Vec<f64>)> = vec![
         ("gross req.", &record.gross_requirement),
         ("sched. receipts", &record.scheduled_receipts),
@@ -485,8 +553,13 @@ fn records(scenario: &Scenario, evaluation: &Evaluation, i: usize, out: &mut Str
     lines.extend([
         ("planned receipts", &record.planned_receipts),
         ("planned releases", &record.planned_releases),
-        ("on hand", &record.on_hand),
+        ("on hand", &on_hand),
     ]);
+    // Negative stock is demand owed: shown as backlog, never as stock
+    // below zero.
+    if owed.iter().any(|&q| q > 0.0) {
+        lines.push(("backlog", &owed));
+    }
     let per_chunk = 9;
     let mut start = 0;
     while start < periods {
@@ -502,10 +575,11 @@ fn records(scenario: &Scenario, evaluation: &Evaluation, i: usize, out: &mut Str
         };
         for &(label, values) in &lines {
             let mut row = vec![label.to_string()];
-            row.extend(values[start..end].iter().map(|&v| {
-                let v = if label == "on hand" { v } else { v.max(0.0) };
-                quantity((v * 100.0).round() / 100.0)
-            }));
+            row.extend(
+                values[start..end]
+                    .iter()
+                    .map(|&v| quantity((v.max(0.0) * 100.0).round() / 100.0)),
+            );
             grid.push(row);
         }
         grid.render(out);
@@ -520,14 +594,14 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> String {
     let evaluation = &report.evaluation;
     let _ = writeln!(
         out,
-        "\nProposed plan: {}, total cost {} ({} setups).",
+        "\nProposed plan: {}, total cost {} ({}).",
         if evaluation.feasible {
             "feasible"
         } else {
             "NOT feasible"
         },
         money(evaluation.total_cost()),
-        evaluation.setups
+        count(evaluation.setups, "setup")
     );
     let c = &evaluation.costs;
     let _ = writeln!(
@@ -842,7 +916,10 @@ pub fn roll(run: &RollRun) -> String {
             money(run.change_cost)
         ));
     }
-    terms.push(format!("each MILP stops after {} s", run.time_limit));
+    terms.push(format!(
+        "each plan's search for the least cost stops after {} s",
+        run.time_limit
+    ));
     wrap(&terms.join("; "), "  ", &mut out);
     let _ = writeln!(
         out,
@@ -858,8 +935,6 @@ pub fn roll(run: &RollRun) -> String {
         "setups",
         "fill rate",
         "short",
-        "overload",
-        "cut",
     ]);
     for r in run.results {
         let e = &r.realised;
@@ -875,16 +950,35 @@ pub fn roll(run: &RollRun) -> String {
             e.setups.to_string(),
             format!("{:.1} %", 100.0 * e.fill_rate()),
             quantity(short),
-            quantity(r.overload_planned().round()),
-            quantity(r.units_cut().round()),
         ]);
     }
     grid.render(&mut out);
     wrap(
-        &format!("cost: setup, holding and other (backlog and overtime); unit cost is left apart, as it follows the units bought, and a method that leaves demand unmet or stock at the end buys fewer or more; end stock: its value at unit cost; short: the most units short at the end of a {unit} (items without backlog); overload: capacity the orders as planned needed beyond capacity and overtime in the {unit}s carried out; cut: units the shop could not make for it (the item that could wait longest is cut first), so that every order carried out fits the lines"),
+        &format!("cost: setup, holding and other (backlog and overtime); unit cost is left apart, as it follows the units bought, and a method that leaves demand unmet or stock at the end buys fewer or more; end stock: its value at unit cost; short: the most units short at the end of a {unit} (items without backlog)"),
         "  ",
         &mut out,
     );
+    if run.results.iter().any(|r| r.overload_planned() > 0.0) {
+        let _ = writeln!(
+            out,
+            "\nCarried out as the lines allow: each {unit}'s orders cut to capacity plus overtime"
+        );
+        let mut grid = Grid::new(&["method", "overload as planned", "units cut", "fill rate"]);
+        for r in run.results {
+            grid.push(vec![
+                r.label.clone(),
+                quantity(r.overload_planned().round()),
+                quantity(r.units_cut().round()),
+                format!("{:.1} %", 100.0 * r.realised.fill_rate()),
+            ]);
+        }
+        grid.render(&mut out);
+        wrap(
+            &format!("overload as planned: capacity the orders needed beyond capacity and overtime in the {unit}s carried out; units cut: what the shop could not make for it (the item whose stock can wait longest is cut first), so every realised figure above rests on capacity that exists"),
+            "  ",
+            &mut out,
+        );
+    }
     let _ = writeln!(
         out,
         "\nPlan stability: each plan against the one before, over the {unit}s both cover"

@@ -149,6 +149,7 @@ mod tests {
             ],
             resources: vec![Resource {
                 id: "LINE".into(),
+                unit: "capacity units".into(),
                 capacity: vec![100.0; 2],
                 overtime_capacity: vec![0.0; 2],
                 overtime_cost: 0.0,

@@ -2,6 +2,7 @@
 //! and the exact dynamic program.
 
 pub mod eoq;
+pub mod eoq_units;
 pub mod exact;
 pub mod fast;
 pub mod multiple;

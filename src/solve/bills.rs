@@ -138,7 +138,7 @@ pub(crate) fn solve_exact(
         super::solve_exact_with(sub, &level_options, &super::Silent)
     });
     let mut notes = vec![format!(
-        "planned jointly across the {levels} levels of the bill of material (one MILP over every item)"
+        "planned jointly across the {levels} levels of the bill of material (one mixed-integer program over every item)"
     )];
     let mut resources: Vec<String> = scenario
         .routings
@@ -286,7 +286,7 @@ fn large_bill(
     let deadline = started + std::time::Duration::from_secs_f64(options.time_limit * 0.9);
     let searched = fix_optimize::improve(scenario, options, &staged.plan, deadline);
     notes[0] = format!(
-        "planned across the {} levels of the bill of material by fix-and-optimize (subproblems of the joint MILP), from the level-by-level plan: {} of {} subproblems improved it",
+        "planned across the {} levels of the bill of material by fix-and-optimize (smaller parts of the joint program re-solved), from the level-by-level plan: {} of {} subproblems improved it",
         scenario.low_level_codes().into_iter().max().unwrap_or(0) + 1,
         searched.improved,
         searched.subproblems
@@ -310,10 +310,12 @@ fn large_bill(
         .filter(|b| b.is_finite() && *b <= cost + OPTIMALITY_GAP * cost.abs().max(1.0))
         .map_or(f64::NEG_INFINITY, |b| b.min(cost));
     if bound.is_finite() {
-        notes.push("the lower bound is the LP relaxation's of the joint MILP".into());
+        notes.push(
+            "the lower bound comes from the joint program with fractional setups allowed".into(),
+        );
     } else {
         notes.push(
-            "the LP relaxation of the joint MILP did not finish, so there is no lower bound".into(),
+            "the joint program with fractional setups allowed did not finish, so there is no lower bound".into(),
         );
     }
     let proven = bound.is_finite() && cost - bound <= OPTIMALITY_GAP * cost.abs().max(1e-9);

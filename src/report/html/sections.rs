@@ -76,6 +76,7 @@ pub(super) fn items_table(scenario: &Scenario, chosen: &MethodResult, out: &mut 
                 num(units((r.average_stock * 10.0).round() / 10.0)),
                 num(figures::cover(r).map_or("-".into(), |c| format!("{c:.1}"))),
                 num(units((r.ending_stock * 100.0).round() / 100.0)),
+                text(item.unit.clone()),
                 num(percent(r.fill_rate, 1)),
             ]
         })
@@ -91,6 +92,7 @@ pub(super) fn items_table(scenario: &Scenario, chosen: &MethodResult, out: &mut 
             "avg stock",
             &cover,
             "end stock",
+            "unit",
             "fill rate",
         ],
         &rows,
@@ -108,6 +110,7 @@ pub(super) fn orders_table(scenario: &Scenario, chosen: &MethodResult, out: &mut
                 num(o.release_period.to_string()),
                 num(o.release_date),
                 num(units(o.quantity)),
+                text(o.unit),
                 text(o.kind.to_string()),
             ]
         })
@@ -126,6 +129,7 @@ pub(super) fn orders_table(scenario: &Scenario, chosen: &MethodResult, out: &mut
             "release period",
             "release date",
             "quantity",
+            "unit",
             "kind",
         ],
         &rows,
@@ -135,33 +139,29 @@ pub(super) fn orders_table(scenario: &Scenario, chosen: &MethodResult, out: &mut
 pub(super) fn stock_section(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
     let chosen = &outcome.chosen;
     let reference = figures::current_rule(outcome).filter(|r| r.method != chosen.method);
-    let _ = write!(out, "<section><h2>Stock over time</h2><p>Stock in units at the end of each {} under the {} plan (solid blue){}. Below zero is backlog or shortage.</p><div class=\"small-multiples\">",
+    let _ = write!(out, "<section><h2>Stock over time</h2><p>Stock in each item's own unit at the end of each {} under the {} plan (solid blue){}. Below zero is backlog or shortage.</p><div class=\"small-multiples\">",
         scenario.calendar.kind.name(),
         escape(chosen.method),
         reference.map(|r| format!(" and under the {} rule (dashed orange)", escape(r.method))).unwrap_or_default());
     for (i, item) in scenario.items.iter().enumerate() {
         let mine = &chosen.evaluation.items[i];
-        let setups = |n: usize| {
-            if n == 1 {
-                "1 setup".to_string()
-            } else {
-                format!("{n} setups")
-            }
-        };
+        let setups = |n: usize| crate::report::count(n, "setup");
         let mut caption = format!(
-            "{}: {}, average stock {}",
+            "{}: {}, average stock {} {}",
             item.id,
             setups(mine.setups),
-            units((mine.average_stock * 10.0).round() / 10.0)
+            units((mine.average_stock * 10.0).round() / 10.0),
+            item.unit
         );
         if let Some(r) = reference {
             let theirs = &r.evaluation.items[i];
             let _ = write!(
                 caption,
-                "; {}: {}, average stock {}",
+                "; {}: {}, average stock {} {}",
                 r.method,
                 setups(theirs.setups),
-                units((theirs.average_stock * 10.0).round() / 10.0)
+                units((theirs.average_stock * 10.0).round() / 10.0),
+                item.unit
             );
             if r.method == "fixed-lot" && item.fixed_lot.is_none() {
                 caption.push_str(" (no fixed_lot: ordered lot-for-lot)");
@@ -219,7 +219,10 @@ pub(super) fn levels_section(scenario: &Scenario, outcome: &Outcome, out: &mut S
     let _ = write!(out, "<section><h2>Stock by level of the bill of material</h2><p>{what} at the end of each {} under the {} plan, summed over each level's items{}. Level 0 holds the items that go into no other; each level below holds their parts, down to what is bought in.</p><figure>{}</figure>",
         scenario.calendar.kind.name(),
         escape(chosen.method),
-        if valued { " at unit cost" } else { " (no item has a unit cost, so units of every kind are added)" },
+        if valued { " at unit cost".to_string() } else { match scenario.stock_unit() {
+            Some(unit) => format!(" (no item has a unit cost, so the count in {unit} is shown)"),
+            None => " (no item has a unit cost, so units of every kind are added: read the levels apart)".to_string(),
+        } },
         charts::steps(scenario, "stock-by-level", &format!("{what} by level of the bill of material"), &series));
     let average = |values: &[f64]| values.iter().sum::<f64>() / values.len().max(1) as f64;
     let theirs = by_level.map(|r| figures::stock_by_level(scenario, r).0);
@@ -289,6 +292,7 @@ pub(super) fn load_section(scenario: &Scenario, chosen: &MethodResult, out: &mut
                 if overtime == 1 { "" } else { "s" }
             );
         }
+        let _ = write!(caption, " (load in {})", resource.unit);
         let _ = write!(
             out,
             "<figure>{}<figcaption>{}</figcaption></figure>",

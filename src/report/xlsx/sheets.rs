@@ -162,12 +162,13 @@ pub(super) fn summary(
         ("Item", 30.0),
         ("Setups", 14.0),
         (&*format!("Total cost{money}"), 16.0),
-        ("Average stock (units)", 14.0),
+        ("Average stock", 14.0),
         (
             &*format!("Cover ({}s of demand)", calendar.kind.name()),
             14.0,
         ),
-        ("Ending stock (units)", 14.0),
+        ("Ending stock", 14.0),
+        ("Unit", 10.0),
         (&*format!("Ending stock value{money}"), 16.0),
         ("Fill rate", 10.0),
     ];
@@ -183,6 +184,7 @@ pub(super) fn summary(
                 Cell::Quantity((record.average_stock * 10.0).round() / 10.0),
                 figures::cover(record).map_or(Cell::Empty, Cell::Decimal),
                 Cell::Quantity(record.ending_stock),
+                Cell::Text(item.unit.clone()),
                 Cell::Money(record.ending_stock_value),
                 Cell::Percent(record.fill_rate),
             ]
@@ -209,7 +211,8 @@ pub(super) fn orders(
         ("Receipt date", 12.0),
         ("Release period", 10.0),
         ("Release date", 12.0),
-        ("Quantity (units)", 12.0),
+        ("Quantity", 12.0),
+        ("Unit", 10.0),
         ("Kind", 9.0),
     ];
     let rows: Vec<Vec<Cell>> = crate::report::json::orders(scenario, &outcome.chosen.plan)
@@ -222,6 +225,7 @@ pub(super) fn orders(
                 Cell::Period(o.release_period),
                 Cell::Date(calendar.signed_bucket_start(o.release_period - 1)),
                 Cell::Quantity(o.quantity),
+                Cell::Text(o.unit),
                 Cell::Text(o.kind.to_string()),
             ]
         })
@@ -239,24 +243,25 @@ pub(super) fn stock_records(
         ("Item", 18.0),
         ("Period", 8.0),
         ("Bucket starts", 12.0),
-        ("Gross requirement (units)", 13.0),
-        ("Scheduled receipts (units)", 13.0),
-        ("Firm orders received (units)", 13.0),
-        ("Planned receipts (units)", 13.0),
-        ("Planned releases (units)", 13.0),
-        ("On hand at end (units)", 13.0),
-        ("Safety stock (units)", 11.0),
-        ("Shortage (units)", 11.0),
-        ("Backlog (units)", 11.0),
+        ("Gross requirement", 13.0),
+        ("Scheduled receipts", 13.0),
+        ("Firm orders received", 13.0),
+        ("Planned receipts", 13.0),
+        ("Planned releases", 13.0),
+        ("On hand at end", 13.0),
+        ("Safety stock", 11.0),
+        ("Shortage", 11.0),
+        ("Backlog", 11.0),
     ];
     let bom = scenario.has_bom();
     if bom {
         columns.extend([
             ("Level", 7.0),
-            ("Dependent requirement (units)", 13.0),
+            ("Dependent requirement", 13.0),
             ("Parent orders (parent, period: units)", 40.0),
         ]);
     }
+    columns.push(("Unit", 10.0));
     let levels = scenario.low_level_codes();
     let pegged = pegs(scenario, evaluation);
     let mut rows = Vec::new();
@@ -272,7 +277,8 @@ pub(super) fn stock_records(
                 Cell::Quantity(record.firm_receipts[t]),
                 Cell::Quantity(record.planned_receipts[t]),
                 Cell::Quantity(record.planned_releases[t]),
-                Cell::Quantity(record.on_hand[t]),
+                // Demand owed is the backlog column, not stock below zero.
+                Cell::Quantity(record.on_hand[t].max(0.0)),
                 Cell::Quantity(item.safety_stock),
                 Cell::Quantity(shortage),
                 Cell::Quantity(backlog),
@@ -282,6 +288,7 @@ pub(super) fn stock_records(
                 row.push(Cell::Quantity(record.dependent_requirement[t]));
                 row.push(Cell::Text(parent_orders_text(scenario, &pegged, i, t)));
             }
+            row.push(Cell::Text(item.unit.clone()));
             rows.push(row);
         }
     }
@@ -305,6 +312,7 @@ pub(super) fn capacity(
         ("Overtime used", 12.0),
         ("Utilisation of regular capacity", 14.0),
         ("Reduced capacity", 10.0),
+        ("Unit", 12.0),
     ];
     let mut rows = Vec::new();
     for (resource, load) in scenario
@@ -330,6 +338,7 @@ pub(super) fn capacity(
                 } else {
                     Cell::Empty
                 },
+                Cell::Text(resource.unit.clone()),
             ]);
         }
     }
@@ -342,6 +351,12 @@ pub(super) fn comparison(
     f: &Formats,
 ) -> std::result::Result<Worksheet, XlsxError> {
     let money = in_currency(scenario);
+    // Stock summed over items is a count only in one unit.
+    let unit = scenario.stock_unit();
+    let counted = |label: &str| match unit {
+        Some(unit) => format!("{label} ({unit})"),
+        None => format!("{label} (items in different units: see the value)"),
+    };
     let headers = [
         ("Method".to_string(), 22.0),
         ("Status".to_string(), 11.0),
@@ -353,9 +368,9 @@ pub(super) fn comparison(
         (format!("Backlog cost{money}"), 12.0),
         (format!("Overtime cost{money}"), 12.0),
         ("Setups".to_string(), 8.0),
-        ("Average stock (units)".to_string(), 11.0),
+        (counted("Average stock"), 11.0),
         (format!("Average stock value{money}"), 13.0),
-        ("Ending stock (units)".to_string(), 11.0),
+        (counted("Ending stock"), 11.0),
         (format!("Ending stock value{money}"), 13.0),
         ("Cost over exact plan".to_string(), 10.0),
         (format!("Lower bound{money}"), 14.0),
@@ -378,9 +393,13 @@ pub(super) fn comparison(
                 Cell::Money(c.backlog),
                 Cell::Money(c.overtime),
                 Cell::Count(e.setups),
-                Cell::Quantity((e.average_stock() * 10.0).round() / 10.0),
+                unit.map_or(Cell::Empty, |_| {
+                    Cell::Quantity((e.average_stock() * 10.0).round() / 10.0)
+                }),
                 Cell::Money(e.average_stock_value(scenario)),
-                Cell::Quantity(e.items.iter().map(|i| i.ending_stock).sum()),
+                unit.map_or(Cell::Empty, |_| {
+                    Cell::Quantity(e.items.iter().map(|i| i.ending_stock).sum())
+                }),
                 Cell::Money(e.ending_stock_value()),
                 figures::extra_over_optimal(outcome, r).map_or(Cell::Empty, Cell::Percent),
                 r.lower_bound.map_or(Cell::Empty, Cell::Money),
