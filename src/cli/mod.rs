@@ -196,7 +196,8 @@ struct CompareArgs {
     /// The second scenario folder (B); without it, B is A changed by --set.
     b: Option<PathBuf>,
     /// Change B: KEY[.ID]=N sets every bucket to N, KEY[.ID]=N% scales to N
-    /// percent. Keys: capacity and overtime (of a resource, or all),
+    /// percent, KEY[.ID]=+N or -N adds or takes away N in every bucket,
+    /// +N% or -N% raises or lowers by N percent. Keys: capacity and overtime (of a resource, or all),
     /// demand, setup_cost, holding_cost and unit_cost (of an item, or all),
     /// frozen_periods. Repeatable, applied in order.
     #[arg(long = "set", value_name = "KEY=VALUE")]
@@ -473,7 +474,12 @@ fn compare(args: CompareArgs) -> Result<i32> {
     let (result_a, result_b) = (planned_a.chosen, planned_b.chosen);
     let mut b_name = b_dir.display().to_string();
     if !overrides.is_empty() {
-        let changes: Vec<&str> = args.set.iter().map(String::as_str).collect();
+        // Each change as typed, and what it does in words (a signed value
+        // is an addition, which the bare text may not make plain).
+        let changes: Vec<String> = overrides
+            .iter()
+            .map(|o| format!("{} ({})", o.text, report::notes::change(o)))
+            .collect();
         b_name = format!("{b_name} with {}", changes.join(", "));
     }
     let comparison = Comparison::new(

@@ -340,6 +340,7 @@ pub fn compare(c: &crate::compare::Comparison) -> Value {
             "average_stock_value": diff(ea.average_stock_value(&c.a.scenario), eb.average_stock_value(&c.b.scenario)),
             "overtime_used": diff(ea.overtime_used(), eb.overtime_used()),
         },
+        "items_compared": c.items_compared(),
         "items": items,
         "resources": resources,
     })

@@ -706,13 +706,18 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
             _ => true,
         })
         .collect();
-    let _ = writeln!(
-        out,
-        "\nItems that differ: {} of {}",
-        differing.len(),
-        c.items.len()
-    );
-    if !differing.is_empty() {
+    if !c.items_compared() {
+        let _ = writeln!(out);
+        wrap(&super::notes::no_plan_to_compare(c), "", &mut out);
+    } else {
+        let _ = writeln!(
+            out,
+            "\nItems that differ: {} of {}",
+            differing.len(),
+            c.items.len()
+        );
+    }
+    if c.items_compared() && !differing.is_empty() {
         let mut grid = Grid::new(&[
             "item",
             "cost A",
