@@ -15,6 +15,7 @@ pub mod check;
 pub mod compare;
 pub mod error;
 pub mod eval;
+pub mod infeasibility;
 pub mod input;
 pub mod model;
 pub mod multilevel;

@@ -243,11 +243,23 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
             ),
             _ => String::new(),
         };
+        let why = side
+            .result
+            .evaluation
+            .infeasibility()
+            .map(|why| {
+                format!(
+                    " Why: {}.",
+                    super::reasons::infeasibility(&side.scenario, &why)
+                )
+            })
+            .unwrap_or_default();
         let _ = write!(
             out,
-            "<p>{label}: {}{}.</p>",
+            "<p>{label}: {}{}.{}</p>",
             escape(&status),
-            escape(&bound)
+            escape(&bound),
+            escape(&why)
         );
     }
     let unit = currency.map(|c| format!(", {c}")).unwrap_or_default();

@@ -141,6 +141,13 @@ fn clean_numbers(value: &mut Value) {
     }
 }
 
+/// Why a plan is infeasible, as data (`null` when it is feasible).
+fn reason(evaluation: &Evaluation) -> Value {
+    let mut value = serde_json::to_value(evaluation.infeasibility()).unwrap_or(Value::Null);
+    clean_numbers(&mut value);
+    value
+}
+
 fn row(scenario: &Scenario, result: &MethodResult, reference: Option<f64>) -> Value {
     let evaluation = &result.evaluation;
     let total = evaluation.total_cost();
@@ -163,6 +170,7 @@ fn row(scenario: &Scenario, result: &MethodResult, reference: Option<f64>) -> Va
         "overtime_used": clean(evaluation.overtime_used()),
         "fill_rate": clean(evaluation.fill_rate()),
         "extra_cost_percent": extra,
+        "reason": reason(evaluation),
         "notes": result.notes,
     })
 }
@@ -270,6 +278,7 @@ fn side(side: &crate::compare::Side) -> Value {
         "ending_stock_value": clean(evaluation.ending_stock_value()),
         "overtime_used": clean(evaluation.overtime_used()),
         "fill_rate": clean(evaluation.fill_rate()),
+        "reason": reason(evaluation),
         "notes": result.notes,
         "cautions": cautions(&side.scenario, result),
     })

@@ -8,6 +8,7 @@ pub mod figures;
 pub mod html;
 pub mod json;
 pub mod notes;
+pub mod reasons;
 mod svg;
 pub mod table;
 pub mod xlsx;

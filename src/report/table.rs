@@ -241,6 +241,12 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
         grid.push(row);
     }
     grid.render(out);
+    for r in rows {
+        if let Some(why) = r.evaluation.infeasibility() {
+            let words = super::reasons::infeasibility(scenario, &why);
+            wrap(&format!("{} is infeasible: {words}", r.method), "  ", out);
+        }
+    }
     let reference = rows
         .iter()
         .find(|r| r.is_exact() && r.evaluation.feasible)
@@ -637,6 +643,10 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
     }
     for (label, side) in [("A", a), ("B", b)] {
         let _ = writeln!(out, "{label}: {}", status_words(&side.result));
+        if let Some(why) = side.result.evaluation.infeasibility() {
+            let words = super::reasons::infeasibility(&side.scenario, &why);
+            wrap(&format!("Why: {words}"), "  ", &mut out);
+        }
         for note in &side.result.notes {
             wrap(&format!("Note: {note}"), "  ", &mut out);
         }
