@@ -1,8 +1,10 @@
 //! Checking a proposed plan (an MRP run's planned orders, a colleague's
-//! plan): its evaluation, the best plan's cost, and where it loses money.
+//! plan): its evaluation, the best plan's cost, where it loses money, and
+//! what to do with each order (`crate::actions`).
 
 use serde::Serialize;
 
+use crate::actions::{actions, shortage_orders, Action, ShortageOrders};
 use crate::capacity::milp::MilpOptions;
 use crate::eval::{evaluate, Evaluation};
 use crate::model::{Plan, Scenario};
@@ -21,9 +23,16 @@ pub struct Finding {
 pub struct CheckReport {
     pub evaluation: Evaluation,
     /// The best plan lotwright finds; `None` when the scenario has no
-    /// feasible plan.
+    /// feasible plan, or when it was not solved (`skipped`).
     pub best: Option<MethodResult>,
     pub findings: Vec<Finding>,
+    /// What to do with each proposed order (and the best orders to add).
+    pub actions: Vec<Action>,
+    /// For each shortage of the evaluation, the orders around it.
+    pub shortage_orders: Vec<ShortageOrders>,
+    /// Whether the scenario was left unsolved (a check of the proposal
+    /// alone).
+    pub skipped: bool,
 }
 
 impl CheckReport {
@@ -36,9 +45,24 @@ impl CheckReport {
 
 /// Evaluates `proposal` and compares it with the best plan.
 pub fn check(scenario: &Scenario, proposal: &Plan, options: &MilpOptions) -> CheckReport {
-    let evaluation = evaluate(scenario, proposal);
     let best = solve_exact(scenario, options);
     let best = best.evaluation.feasible.then_some(best);
+    report(scenario, proposal, best, false)
+}
+
+/// Evaluates `proposal` alone, without solving the scenario for the best
+/// plan: shortages, overloads, rule breaches, past-due orders.
+pub fn check_only(scenario: &Scenario, proposal: &Plan) -> CheckReport {
+    report(scenario, proposal, None, true)
+}
+
+fn report(
+    scenario: &Scenario,
+    proposal: &Plan,
+    best: Option<MethodResult>,
+    skipped: bool,
+) -> CheckReport {
+    let evaluation = evaluate(scenario, proposal);
     let mut findings = Vec::new();
     if let Some(best) = &best {
         for (i, item) in scenario.items.iter().enumerate() {
@@ -89,9 +113,14 @@ pub fn check(scenario: &Scenario, proposal: &Plan, options: &MilpOptions) -> Che
                 .then(a.item.cmp(&b.item))
         });
     }
+    let actions = actions(scenario, proposal, best.as_ref().map(|b| &b.plan));
+    let shortage_orders = shortage_orders(scenario, proposal, &evaluation);
     CheckReport {
         evaluation,
         best,
         findings,
+        actions,
+        shortage_orders,
+        skipped,
     }
 }

@@ -10,6 +10,7 @@
 // `capacity::interrupt`, which the bindings do not wrap.
 #![deny(unsafe_code)]
 
+pub mod actions;
 pub mod capacity;
 pub mod check;
 pub mod compare;

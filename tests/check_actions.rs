@@ -185,3 +185,45 @@ fn no_solve_checks_without_the_best_plan_and_says_why() {
     assert_eq!(solved["best_skipped"], false);
     assert!(solved["best_cost"].as_f64().is_some());
 }
+
+/// One item made in the week it is needed (holding 5 a unit-week against a
+/// setup of 10, so the best plan is lot-for-lot: 10 in week 2, 10 in week
+/// 5). The proposal has them a week early and a week late.
+#[test]
+fn an_early_order_moves_out_and_a_late_one_moves_in() {
+    let dir = scenario_dir(&[
+        ("scenario.toml", &weekly_toml(6)),
+        ("items.csv", "item,setup_cost,holding_cost\nSEAL,10,5\n"),
+        ("demand.csv", "item,period,quantity\nSEAL,2,10\nSEAL,5,10\n"),
+        ("orders.csv", "item,period,quantity\nSEAL,1,10\nSEAL,6,10\n"),
+    ]);
+    let orders = dir.path().join("orders.csv");
+    let (code, out, err) = lotwright(&[
+        "check",
+        dir.path().to_str().unwrap(),
+        "--orders",
+        orders.to_str().unwrap(),
+        "--json",
+    ]);
+    assert_eq!(code, 0, "{err}");
+    let json: Value = serde_json::from_str(&out).unwrap();
+    let early = action_of(&json, "SEAL", 1);
+    assert_eq!(early["action"], "move-out", "{early}");
+    assert_eq!((early["to_period"].as_u64(), early["by"].as_i64()), (Some(2), Some(-1)));
+    let late = action_of(&json, "SEAL", 6);
+    assert_eq!(late["action"], "move-in", "{late}");
+    assert_eq!((late["to_period"].as_u64(), late["by"].as_i64()), (Some(5), Some(1)));
+    assert_eq!(actions(&json).len(), 2, "nothing to add or cancel");
+    let shortage = &json["shortages"][0];
+    assert_eq!(shortage["period"], 5);
+    assert_eq!(shortage["order"]["period"], 1, "week 1's lot ran out in week 2");
+    assert_eq!(shortage["next_order"]["period"], 6);
+    let (_, text, _) = lotwright(&[
+        "check",
+        dir.path().to_str().unwrap(),
+        "--orders",
+        orders.to_str().unwrap(),
+    ]);
+    assert!(text.contains("move out by 1 week to period 2"), "{text}");
+    assert!(text.contains("move in by 1 week to period 5"), "{text}");
+}

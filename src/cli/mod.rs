@@ -183,6 +183,11 @@ struct CheckArgs {
     /// Exit with code 1 when the proposal is not feasible.
     #[arg(long)]
     strict: bool,
+    /// Check the proposal alone: do not solve the scenario for the best
+    /// plan (best_cost is then null, and only past-due and release-now
+    /// actions are given).
+    #[arg(long)]
+    no_solve: bool,
     #[command(flatten)]
     freeze: Freeze,
     #[command(flatten)]
@@ -419,7 +424,11 @@ fn check(args: CheckArgs) -> Result<i32> {
     let milp = args.limits.milp()?;
     let scenario = args.freeze.read(&args.dir)?;
     let proposal = lotwright::input::read_orders(&args.orders, &scenario)?;
-    let report = lotwright::check::check(&scenario, &proposal, &milp);
+    let report = if args.no_solve {
+        lotwright::check::check_only(&scenario, &proposal)
+    } else {
+        lotwright::check::check(&scenario, &proposal, &milp)
+    };
     if args.json {
         emit_json(&report::json::check(&scenario, &report))?;
     } else {

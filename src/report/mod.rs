@@ -1,6 +1,7 @@
 //! Renderers: pure functions from results to text or bytes. They format;
 //! they never compute costs or feasibility (that is `eval`'s job).
 
+pub mod actions;
 mod charts;
 pub mod csv;
 pub mod eoq;
