@@ -584,13 +584,13 @@ fn longest_cover(item: &Item, receipts: &[f64], tolerance: f64) -> usize {
     }
     let mut owed = 0.0;
     let mut longest = 0;
-    for t in 0..item.periods() {
+    for (t, &planned) in receipts.iter().enumerate().take(item.periods()) {
         let other = item.receipts[t] + item.firm[t];
         if other > 0.0 {
             stock.push_back((None, other));
         }
-        if receipts[t] > 0.0 {
-            stock.push_back((Some(t), receipts[t]));
+        if planned > 0.0 {
+            stock.push_back((Some(t), planned));
         }
         owed += item.demand[t];
         while owed > tolerance {

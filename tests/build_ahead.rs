@@ -55,7 +55,12 @@ fn a_made_to_order_item_with_lumpy_demand_gets_no_build_ahead_caution() {
         .as_array()
         .unwrap()
         .iter()
-        .map(|o| (o["period"].as_u64().unwrap(), o["quantity"].as_f64().unwrap()))
+        .map(|o| {
+            (
+                o["period"].as_u64().unwrap(),
+                o["quantity"].as_f64().unwrap(),
+            )
+        })
         .collect();
     assert_eq!(orders, [(2, 40.0), (7, 30.0)]);
     assert_eq!(ahead_caution(&json), None, "{}", json["cautions"]);

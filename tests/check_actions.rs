@@ -35,7 +35,13 @@ fn fixture() -> (tempfile::TempDir, String) {
 
 fn check_json(extra: &[&str]) -> Value {
     let (dir, orders) = fixture();
-    let mut args = vec!["check", dir.path().to_str().unwrap(), "--orders", &orders, "--json"];
+    let mut args = vec![
+        "check",
+        dir.path().to_str().unwrap(),
+        "--orders",
+        &orders,
+        "--json",
+    ];
     args.extend_from_slice(extra);
     let (code, out, err) = lotwright(&args);
     assert_eq!(code, 0, "{err}");
@@ -51,7 +57,11 @@ fn action_of<'a>(json: &'a Value, item: &str, period: u64) -> &'a Value {
         .iter()
         .filter(|a| a["item"] == item && a["period"] == period && a["action"] != "add")
         .collect();
-    assert_eq!(found.len(), 1, "one action for {item} in {period}: {found:?}");
+    assert_eq!(
+        found.len(),
+        1,
+        "one action for {item} in {period}: {found:?}"
+    );
     found[0]
 }
 
@@ -144,10 +154,19 @@ fn each_shortage_names_the_order_that_leaves_it_short() {
         .expect("CARTON short");
     assert_eq!(carton["period"], 4);
     assert_eq!(carton["quantity"], 15.0);
-    assert_eq!(carton["order"]["period"], 3, "the lot received in week 3 runs out");
+    assert_eq!(
+        carton["order"]["period"], 3,
+        "the lot received in week 3 runs out"
+    );
     assert_eq!(carton["order"]["quantity"], 30.0);
-    assert_eq!(carton["next_order"]["period"], 5, "the next lot comes in week 5");
-    let lid = shortages.iter().find(|s| s["item"] == "LID").expect("LID short");
+    assert_eq!(
+        carton["next_order"]["period"], 5,
+        "the next lot comes in week 5"
+    );
+    let lid = shortages
+        .iter()
+        .find(|s| s["item"] == "LID")
+        .expect("LID short");
     assert_eq!(lid["order"], Value::Null);
     assert_eq!(lid["next_order"], Value::Null);
     let (dir, orders) = fixture();
@@ -168,7 +187,14 @@ fn each_shortage_names_the_order_that_leaves_it_short() {
 #[test]
 fn no_solve_checks_without_the_best_plan_and_says_why() {
     let json = check_json(&["--no-solve"]);
-    for key in ["feasible", "total_cost", "shortages", "overloads", "violations", "best_cost"] {
+    for key in [
+        "feasible",
+        "total_cost",
+        "shortages",
+        "overloads",
+        "violations",
+        "best_cost",
+    ] {
         assert!(json.get(key).is_some(), "contract key {key}");
     }
     assert_eq!(json["feasible"], false);
@@ -209,14 +235,23 @@ fn an_early_order_moves_out_and_a_late_one_moves_in() {
     let json: Value = serde_json::from_str(&out).unwrap();
     let early = action_of(&json, "SEAL", 1);
     assert_eq!(early["action"], "move-out", "{early}");
-    assert_eq!((early["to_period"].as_u64(), early["by"].as_i64()), (Some(2), Some(-1)));
+    assert_eq!(
+        (early["to_period"].as_u64(), early["by"].as_i64()),
+        (Some(2), Some(-1))
+    );
     let late = action_of(&json, "SEAL", 6);
     assert_eq!(late["action"], "move-in", "{late}");
-    assert_eq!((late["to_period"].as_u64(), late["by"].as_i64()), (Some(5), Some(1)));
+    assert_eq!(
+        (late["to_period"].as_u64(), late["by"].as_i64()),
+        (Some(5), Some(1))
+    );
     assert_eq!(actions(&json).len(), 2, "nothing to add or cancel");
     let shortage = &json["shortages"][0];
     assert_eq!(shortage["period"], 5);
-    assert_eq!(shortage["order"]["period"], 1, "week 1's lot ran out in week 2");
+    assert_eq!(
+        shortage["order"]["period"], 1,
+        "week 1's lot ran out in week 2"
+    );
     assert_eq!(shortage["next_order"]["period"], 6);
     let (_, text, _) = lotwright(&[
         "check",

@@ -38,7 +38,9 @@ fn compare(dir: &tempfile::TempDir, set: &str, json: bool) -> (i32, String, Stri
 }
 
 fn capacity(json: &Value, side: &str) -> f64 {
-    json["resources"][0][side]["capacity"].as_f64().expect("capacity")
+    json["resources"][0][side]["capacity"]
+        .as_f64()
+        .expect("capacity")
 }
 
 #[test]
@@ -62,7 +64,10 @@ fn a_signed_capacity_is_added_to_every_period_and_echoed_as_an_addition() {
         "{text}"
     );
     let (_, text, _) = compare(&dir, "capacity.LINE=80", false);
-    assert!(text.contains("capacity of LINE set to 80 in every period"), "{text}");
+    assert!(
+        text.contains("capacity of LINE set to 80 in every period"),
+        "{text}"
+    );
 }
 
 #[test]

@@ -115,7 +115,9 @@ fn report_html_and_plan_xlsx_say_why_as_well() {
     );
     let bytes = std::fs::read(out.join("plan.xlsx")).expect("plan.xlsx");
     let mut book: Xlsx<_> = open_workbook_from_rs(Cursor::new(bytes)).expect("opens");
-    let sheet = book.worksheet_range("Comparison").expect("Comparison sheet");
+    let sheet = book
+        .worksheet_range("Comparison")
+        .expect("Comparison sheet");
     let mut rows = sheet.rows();
     let header = rows.next().expect("a header");
     let why = header

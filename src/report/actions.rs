@@ -22,7 +22,11 @@ fn buckets(scenario: &Scenario, n: i64) -> String {
 pub fn action(scenario: &Scenario, a: &Action) -> String {
     let resized = match (a.order, a.target) {
         (Some(o), Some(t)) if (o.quantity - t.quantity).abs() > 1e-6 * (1.0 + t.quantity) => {
-            format!(", quantity {} instead of {}", quantity(t.quantity), quantity(o.quantity))
+            format!(
+                ", quantity {} instead of {}",
+                quantity(t.quantity),
+                quantity(o.quantity)
+            )
         }
         _ => String::new(),
     };

@@ -296,10 +296,7 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> Value {
             if let Value::Object(map) = entry {
                 map.insert("order".into(), order_ref(scenario, around.order));
                 map.insert("next_order".into(), order_ref(scenario, around.next_order));
-                map.insert(
-                    "cause".into(),
-                    json!(super::actions::shortage(around)),
-                );
+                map.insert("cause".into(), json!(super::actions::shortage(around)));
             }
         }
     }

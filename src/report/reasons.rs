@@ -56,10 +56,7 @@ fn overload(scenario: &Scenario, o: &ResourceOverload) -> String {
         quantity(o.excess)
     );
     if o.periods > 1 {
-        text.push_str(&format!(
-            " there ({} in all)",
-            quantity(o.total_excess)
-        ));
+        text.push_str(&format!(" there ({} in all)", quantity(o.total_excess)));
     }
     text
 }

@@ -595,7 +595,12 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> String {
             let _ = writeln!(out, "The scenario itself has no feasible plan.");
         }
     }
-    faults(scenario, evaluation, Some(&report.shortage_orders), &mut out);
+    faults(
+        scenario,
+        evaluation,
+        Some(&report.shortage_orders),
+        &mut out,
+    );
     if !report.actions.is_empty() {
         let _ = writeln!(
             out,
