@@ -1,8 +1,10 @@
 //! Checking a proposed plan (an MRP run's planned orders, a colleague's
-//! plan): its evaluation, the best plan's cost, and where it loses money.
+//! plan): its evaluation, the best plan's cost, where it loses money, and
+//! what to do with each order (`crate::actions`).
 
 use serde::Serialize;
 
+use crate::actions::{actions, shortage_orders, Action, ShortageOrders};
 use crate::capacity::milp::MilpOptions;
 use crate::eval::{evaluate, Evaluation};
 use crate::model::{Plan, Scenario};
@@ -21,13 +23,21 @@ pub struct Finding {
 pub struct CheckReport {
     pub evaluation: Evaluation,
     /// The best plan lotwright finds; `None` when it found none (see
-    /// `best_status`).
+    /// `best_status`) or was not asked to solve (`skipped`).
     pub best: Option<MethodResult>,
     /// What the search for the best plan proved: `Infeasible` when the
     /// scenario has no feasible plan, `Unknown` when the time limit ran out
     /// before a plan was found (which says nothing about the scenario).
-    pub best_status: Status,
+    /// `None` when the scenario was not solved (`skipped`).
+    pub best_status: Option<Status>,
     pub findings: Vec<Finding>,
+    /// What to do with each proposed order (and the best orders to add).
+    pub actions: Vec<Action>,
+    /// For each shortage of the evaluation, the orders around it.
+    pub shortage_orders: Vec<ShortageOrders>,
+    /// Whether the scenario was left unsolved (a check of the proposal
+    /// alone).
+    pub skipped: bool,
 }
 
 impl CheckReport {
@@ -40,7 +50,6 @@ impl CheckReport {
 
 /// Evaluates `proposal` and compares it with the best plan.
 pub fn check(scenario: &Scenario, proposal: &Plan, options: &MilpOptions) -> CheckReport {
-    let evaluation = evaluate(scenario, proposal);
     let best = solve_exact(scenario, options);
     let best_status = match best.status {
         // A plan shown for an unproven search may break a constraint; only
@@ -49,6 +58,23 @@ pub fn check(scenario: &Scenario, proposal: &Plan, options: &MilpOptions) -> Che
         status => status,
     };
     let best = best.evaluation.feasible.then_some(best);
+    report(scenario, proposal, best, Some(best_status))
+}
+
+/// Evaluates `proposal` alone, without solving the scenario for the best
+/// plan: shortages, overloads, rule breaches, past-due orders.
+pub fn check_only(scenario: &Scenario, proposal: &Plan) -> CheckReport {
+    report(scenario, proposal, None, None)
+}
+
+fn report(
+    scenario: &Scenario,
+    proposal: &Plan,
+    best: Option<MethodResult>,
+    best_status: Option<Status>,
+) -> CheckReport {
+    let skipped = best_status.is_none();
+    let evaluation = evaluate(scenario, proposal);
     let mut findings = Vec::new();
     if let Some(best) = &best {
         for (i, item) in scenario.items.iter().enumerate() {
@@ -99,10 +125,15 @@ pub fn check(scenario: &Scenario, proposal: &Plan, options: &MilpOptions) -> Che
                 .then(a.item.cmp(&b.item))
         });
     }
+    let actions = actions(scenario, proposal, best.as_ref().map(|b| &b.plan));
+    let shortage_orders = shortage_orders(scenario, proposal, &evaluation);
     CheckReport {
         evaluation,
         best,
         best_status,
         findings,
+        actions,
+        shortage_orders,
+        skipped,
     }
 }

@@ -36,17 +36,36 @@ impl Field {
     }
 }
 
-/// The new value: a number for every bucket, or a percentage of the value
-/// there is.
+/// The new value: a number for every bucket, a percentage of the value
+/// there is, or (written with a sign) an addition to it.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum Change {
+    /// `N`: every bucket becomes N.
     Set(f64),
+    /// `N%`: every bucket becomes N percent of its value.
     Percent(f64),
+    /// `+N` or `-N`: N is added to every bucket (a negative N subtracts).
+    Add(f64),
+    /// `+N%` or `-N%`: every bucket rises (falls) by N percent.
+    AddPercent(f64),
+}
+
+impl Change {
+    /// The new value of a bucket whose value is `value`.
+    pub fn of(self, value: f64) -> f64 {
+        match self {
+            Change::Set(n) => n,
+            Change::Percent(p) => value * p / 100.0,
+            Change::Add(n) => value + n,
+            Change::AddPercent(p) => value * (100.0 + p) / 100.0,
+        }
+    }
 }
 
 /// One `--set KEY=VALUE`: `capacity`, `overtime` (of a resource, or all),
 /// `demand`, `setup_cost`, `holding_cost`, `unit_cost` (of an item, or
-/// all) or `frozen_periods`; the value `N` or `N%`.
+/// all) or `frozen_periods`; the value `N`, `N%`, or with a sign `+N`,
+/// `-N`, `+N%`, `-N%` (added to the value there is).
 #[derive(Debug, Clone, PartialEq)]
 pub struct Override {
     pub text: String,
@@ -56,7 +75,8 @@ pub struct Override {
     pub change: Change,
 }
 
-/// Reads `KEY[.ID]=N` or `KEY[.ID]=N%`.
+/// Reads `KEY[.ID]=N`, `KEY[.ID]=N%`, or the same with a sign in front
+/// (an addition).
 pub fn parse_override(text: &str) -> Result<Override> {
     let usage = |why: String| Error::usage(format!("--set {text}: {why}"));
     let (key, value) = text
@@ -84,9 +104,17 @@ pub fn parse_override(text: &str) -> Result<Override> {
         ));
     }
     let value = value.trim();
-    let (number, percent) = match value.strip_suffix('%') {
+    // A sign in front makes the value an addition to what is there.
+    let (sign, unsigned) = match value.strip_prefix('+') {
+        Some(rest) => (Some(1.0), rest.trim_start()),
+        None => match value.strip_prefix('-') {
+            Some(rest) => (Some(-1.0), rest.trim_start()),
+            None => (None, value),
+        },
+    };
+    let (number, percent) = match unsigned.strip_suffix('%') {
         Some(number) => (number.trim(), true),
-        None => (value, false),
+        None => (unsigned, false),
     };
     let number: f64 = number
         .parse()
@@ -94,18 +122,20 @@ pub fn parse_override(text: &str) -> Result<Override> {
         .filter(|n: &f64| n.is_finite() && *n >= 0.0)
         .ok_or_else(|| {
             usage(format!(
-                "{value} is not a number of 0 or more (or a percentage such as 120%)"
+                "{value} is not a number of 0 or more, a percentage such as 120%, or an addition such as +10, -10, +5% or -5%"
             ))
         })?;
     if field == Field::FrozenPeriods && (percent || number.fract() != 0.0) {
         return Err(usage(
-            "frozen_periods takes a whole number of periods".into(),
+            "frozen_periods takes a whole number of periods (or +N, -N to add or take some away)"
+                .into(),
         ));
     }
-    let change = if percent {
-        Change::Percent(number)
-    } else {
-        Change::Set(number)
+    let change = match (sign, percent) {
+        (None, false) => Change::Set(number),
+        (None, true) => Change::Percent(number),
+        (Some(sign), false) => Change::Add(sign * number),
+        (Some(sign), true) => Change::AddPercent(sign * number),
     };
     Ok(Override {
         text: text.to_string(),
@@ -118,20 +148,38 @@ pub fn parse_override(text: &str) -> Result<Override> {
 /// Applies an override to `scenario`.
 pub fn apply(scenario: &mut Scenario, o: &Override) -> Result<()> {
     let usage = |why: String| Error::usage(format!("--set {}: {why}", o.text));
-    let update = |values: &mut Vec<f64>| {
-        for v in values.iter_mut() {
-            *v = match o.change {
-                Change::Set(n) => n,
-                Change::Percent(p) => *v * p / 100.0,
-            };
+    // Every bucket's new value, refused where a subtraction takes it below 0.
+    let update = |values: &mut Vec<f64>, what: &str| -> Result<()> {
+        for (t, v) in values.iter_mut().enumerate() {
+            let new = o.change.of(*v);
+            if new < 0.0 {
+                return Err(usage(format!(
+                    "this takes {what} below 0 in period {} ({} becomes {}); lower it by less, or to a share such as 50%",
+                    t + 1,
+                    crate::report::quantity(*v),
+                    crate::report::quantity(new)
+                )));
+            }
+            *v = new;
         }
+        Ok(())
     };
     if o.field == Field::FrozenPeriods {
-        let Change::Set(n) = o.change else {
-            return Err(usage(
-                "frozen_periods takes a whole number of periods".into(),
-            ));
+        let n = match o.change {
+            Change::Set(n) => n,
+            Change::Add(n) => scenario.frozen as f64 + n,
+            _ => {
+                return Err(usage(
+                    "frozen_periods takes a whole number of periods".into(),
+                ))
+            }
         };
+        if n < 0.0 {
+            return Err(usage(format!(
+                "this takes the frozen horizon below 0 periods (it is {})",
+                scenario.frozen
+            )));
+        }
         let frozen = n as usize;
         if frozen >= scenario.periods() {
             return Err(usage(format!(
@@ -150,9 +198,13 @@ pub fn apply(scenario: &mut Scenario, o: &Override) -> Result<()> {
                 continue;
             }
             found = true;
+            let what = format!("resource {}'s", resource.id);
             match o.field {
-                Field::Capacity => update(&mut resource.capacity),
-                _ => update(&mut resource.overtime_capacity),
+                Field::Capacity => update(&mut resource.capacity, &format!("{what} capacity"))?,
+                _ => update(
+                    &mut resource.overtime_capacity,
+                    &format!("{what} overtime capacity"),
+                )?,
             }
         }
         if !found {
@@ -169,17 +221,18 @@ pub fn apply(scenario: &mut Scenario, o: &Override) -> Result<()> {
             continue;
         }
         found = true;
+        let what = format!("item {}'s", item.id);
         match o.field {
-            Field::Demand => update(&mut item.demand),
+            Field::Demand => update(&mut item.demand, &format!("{what} demand"))?,
             Field::SetupCost => {
-                update(&mut item.setup_cost);
-                item.nominal_setup_cost = changed(item.nominal_setup_cost, o.change);
+                update(&mut item.setup_cost, &format!("{what} setup cost"))?;
+                item.nominal_setup_cost = o.change.of(item.nominal_setup_cost).max(0.0);
             }
             Field::HoldingCost => {
-                update(&mut item.holding_cost);
-                item.nominal_holding_cost = changed(item.nominal_holding_cost, o.change);
+                update(&mut item.holding_cost, &format!("{what} holding cost"))?;
+                item.nominal_holding_cost = o.change.of(item.nominal_holding_cost).max(0.0);
             }
-            _ => update(&mut item.unit_cost),
+            _ => update(&mut item.unit_cost, &format!("{what} unit cost"))?,
         }
     }
     if !found {
@@ -189,13 +242,6 @@ pub fn apply(scenario: &mut Scenario, o: &Override) -> Result<()> {
         }));
     }
     Ok(())
-}
-
-fn changed(value: f64, change: Change) -> f64 {
-    match change {
-        Change::Set(n) => n,
-        Change::Percent(p) => value * p / 100.0,
-    }
 }
 
 /// One item's figures under one plan.
@@ -271,6 +317,20 @@ impl AddedCapacity {
     }
 }
 
+impl Side {
+    /// Whether the side has a plan of its method. The exact method has none
+    /// when the scenario is infeasible or the time ran out before a plan
+    /// was found; the orders it shows then (lot-for-lot) are for reference
+    /// only. A rule always has its plan, feasible or not.
+    pub fn has_plan(&self) -> bool {
+        self.result.is_rule()
+            || matches!(
+                self.result.status,
+                crate::solve::Status::Optimal | crate::solve::Status::Feasible
+            )
+    }
+}
+
 impl Comparison {
     /// The range in which B's least possible cost less A's lies, from the
     /// plans and the proven lower bounds of both sides: [B's bound - A's
@@ -325,6 +385,12 @@ impl Comparison {
             }
         }
         added
+    }
+
+    /// Whether the items can be compared plan against plan: both sides
+    /// have one.
+    pub fn items_compared(&self) -> bool {
+        self.a.has_plan() && self.b.has_plan()
     }
 
     /// The items, the largest change in cost first.
@@ -427,11 +493,26 @@ mod tests {
         assert_eq!((o.field, o.target), (Field::Demand, None));
         let o = parse_override("frozen_periods=2").expect("valid");
         assert_eq!(o.change, Change::Set(2.0));
+        // A sign makes an addition, of units or of a percentage.
+        let o = parse_override("capacity.LINE-1=+10").expect("valid");
+        assert_eq!(o.change, Change::Add(10.0));
+        assert_eq!(o.change.of(100.0), 110.0);
+        let o = parse_override("demand=-5").expect("valid");
+        assert_eq!(o.change, Change::Add(-5.0));
+        let o = parse_override("overtime=-20%").expect("valid");
+        assert_eq!(o.change, Change::AddPercent(-20.0));
+        assert_eq!(o.change.of(50.0), 40.0);
+        assert_eq!(
+            parse_override("frozen_periods=+1").expect("valid").change,
+            Change::Add(1.0)
+        );
         for bad in [
             "capacity",
             "speed=3",
             "capacity.=3",
-            "demand=-5",
+            "demand=+-5",
+            "demand=--5",
+            "frozen_periods=+1%",
             "demand=lots",
             "frozen_periods=50%",
             "frozen_periods.A=1",

@@ -59,8 +59,11 @@ pub struct ItemRecord {
     pub ending_stock_value: f64,
     /// Demand met on time over demand, in [0, 1] (1 when there is no demand).
     pub fill_rate: f64,
-    /// The most buckets one planned lot covers (from its receipt to the next
-    /// planned receipt or the horizon's end): how far ahead stock is built.
+    /// The most buckets one planned lot covers: from its receipt to the
+    /// last bucket whose requirement it meets, stock used first in, first
+    /// out (see `longest_cover`). 1 for a lot that meets only its own
+    /// bucket's need, however long the quiet spell after it; how far ahead
+    /// stock is built.
     pub longest_cover: usize,
     /// Whether negative stock is backlog (allowed) or shortage.
     pub allows_backlog: bool,
@@ -584,13 +587,7 @@ fn evaluate_item(
     let average_stock = on_hand.iter().map(|s| s.max(0.0)).sum::<f64>() / periods.max(1) as f64;
     let ending_stock = on_hand.last().copied().unwrap_or(item.initial_stock);
     let ending_unit_cost = item.unit_cost.last().copied().unwrap_or(0.0);
-    let order_buckets: Vec<usize> = (0..periods).filter(|&t| receipts[t] > 0.0).collect();
-    let longest_cover = order_buckets
-        .iter()
-        .enumerate()
-        .map(|(k, &t)| order_buckets.get(k + 1).copied().unwrap_or(periods) - t)
-        .max()
-        .unwrap_or(0);
+    let longest_cover = longest_cover(item, receipts, tolerance);
     ItemRecord {
         dependent_requirement: vec![0.0; periods],
         longest_cover,
@@ -613,5 +610,87 @@ fn evaluate_item(
         } else {
             1.0
         },
+    }
+}
+
+/// The most buckets one planned lot of `item` covers: from the bucket it is
+/// received to the last bucket whose requirement it meets, with stock used
+/// first in, first out (initial stock, scheduled and firm receipts first,
+/// then the planned lots in the order they arrive). A lot that meets only
+/// its own bucket's requirement covers 1, however many buckets pass before
+/// the next need; a lot used up by the requirements of its bucket and the
+/// two after covers 3. A lot never drawn on (stock kept to the end) covers
+/// nothing. 0 without planned lots.
+fn longest_cover(item: &Item, receipts: &[f64], tolerance: f64) -> usize {
+    use std::collections::VecDeque;
+    // (the bucket a planned lot is received, or None for other stock; units left)
+    let mut stock: VecDeque<(Option<usize>, f64)> = VecDeque::new();
+    if item.initial_stock > 0.0 {
+        stock.push_back((None, item.initial_stock));
+    }
+    let mut owed = 0.0;
+    let mut longest = 0;
+    for (t, &planned) in receipts.iter().enumerate().take(item.periods()) {
+        let other = item.receipts[t] + item.firm[t];
+        if other > 0.0 {
+            stock.push_back((None, other));
+        }
+        if planned > 0.0 {
+            stock.push_back((Some(t), planned));
+        }
+        owed += item.demand[t];
+        while owed > tolerance {
+            let Some(front) = stock.front_mut() else {
+                break;
+            };
+            let used = front.1.min(owed);
+            front.1 -= used;
+            owed -= used;
+            if let Some(received) = front.0 {
+                longest = longest.max(t - received + 1);
+            }
+            if front.1 <= tolerance {
+                stock.pop_front();
+            }
+        }
+    }
+    longest
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn cover(demand: &[f64], initial: f64, receipts: &[f64]) -> usize {
+        let mut item = Item::simple("A", demand, 10.0, 1.0);
+        item.initial_stock = initial;
+        longest_cover(&item, receipts, 1e-9)
+    }
+
+    #[test]
+    fn a_lot_for_its_own_bucket_covers_one_however_long_the_quiet_after_it() {
+        let demand = [0.0, 40.0, 0.0, 0.0, 0.0, 0.0, 30.0, 0.0];
+        let receipts = [0.0, 40.0, 0.0, 0.0, 0.0, 0.0, 30.0, 0.0];
+        assert_eq!(cover(&demand, 0.0, &receipts), 1);
+    }
+
+    #[test]
+    fn a_lot_covers_up_to_the_last_bucket_it_meets_first_in_first_out() {
+        // 60 in bucket 1 meets 20, 20, 20: three buckets.
+        assert_eq!(cover(&[20.0; 4], 0.0, &[60.0, 0.0, 0.0, 20.0]), 3);
+        // The same lot after 30 in stock: the stock goes first, so the lot
+        // lasts into bucket 5 (20 of bucket 2, then 3, 4 and 10 of 5).
+        assert_eq!(cover(&[20.0; 5], 30.0, &[0.0, 60.0, 0.0, 0.0, 0.0]), 4);
+        // Demand 40 in bucket 2 and 30 in bucket 7, both made in bucket 2:
+        // built ahead over six buckets.
+        let demand = [0.0, 40.0, 0.0, 0.0, 0.0, 0.0, 30.0, 0.0];
+        let receipts = [0.0, 70.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0];
+        assert_eq!(cover(&demand, 0.0, &receipts), 6);
+    }
+
+    #[test]
+    fn a_lot_never_drawn_on_covers_nothing() {
+        assert_eq!(cover(&[10.0, 10.0], 20.0, &[0.0, 5.0]), 0);
+        assert_eq!(cover(&[10.0, 10.0], 0.0, &[0.0, 0.0]), 0);
     }
 }

@@ -10,11 +10,13 @@
 // `capacity::interrupt`, which the bindings do not wrap.
 #![deny(unsafe_code)]
 
+pub mod actions;
 pub mod capacity;
 pub mod check;
 pub mod compare;
 pub mod error;
 pub mod eval;
+pub mod infeasibility;
 pub mod input;
 pub mod model;
 pub mod multilevel;

@@ -805,7 +805,9 @@ fn compare_refuses_a_missing_second_side_and_unknown_overrides() {
             vec!["--set", "capacity=90%"],
             "the scenario has no resources",
         ),
-        (vec!["--set", "demand=-1"], "not a number of 0 or more"),
+        (vec!["--set", "demand=lots"], "not a number of 0 or more"),
+        // A signed value is an addition; one below 0 is refused.
+        (vec!["--set", "demand=-1000"], "below 0"),
         (vec!["--set", "frozen_periods=5"], "freeze at most 4"),
     ] {
         let mut all = vec!["compare", path(dir.path())];

@@ -47,7 +47,7 @@ fn shared_component() -> tempfile::TempDir {
 /// so 16 short at the end of week 2 and still at the end of week 3. Stock
 /// serves the own demand first, then the bill's lines in order: 3 to the
 /// spares, 9 of P's 20, none of Q's 5. So the 16 short are Q's 5 and 11 of
-/// P's 20.
+/// P's 20. The proposal has no order of C at all: no order covers it.
 #[test]
 fn a_component_shortage_is_pegged_to_the_parent_orders_it_leaves_short() {
     let dir = shared_component();
@@ -66,8 +66,10 @@ fn a_component_shortage_is_pegged_to_the_parent_orders_it_leaves_short() {
     assert_eq!(
         v["shortages"],
         json!([
-            {"item": "C", "period": 2, "quantity": 16.0, "unit": "units", "own_demand": 0.0, "parent_orders": short_for},
-            {"item": "C", "period": 3, "quantity": 16.0, "unit": "units", "own_demand": 0.0, "parent_orders": short_for},
+            {"item": "C", "period": 2, "quantity": 16.0, "unit": "units", "own_demand": 0.0, "parent_orders": short_for,
+             "order": null, "next_order": null, "cause": "no order covers it"},
+            {"item": "C", "period": 3, "quantity": 16.0, "unit": "units", "own_demand": 0.0, "parent_orders": short_for,
+             "order": null, "next_order": null, "cause": "no order covers it"},
         ])
     );
     assert_eq!(

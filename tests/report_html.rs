@@ -105,7 +105,12 @@ fn cautions_appear_where_the_plan_builds_ahead() {
     let page = html::plan(&scenario, &outcome);
     assert!(page.contains("Check before releasing the orders"));
     for caution in cautions {
-        let escaped = caution.replace('&', "&amp;").replace('\'', "&#39;");
+        // The caution may name the item whose id is markup.
+        let escaped = caution
+            .replace('&', "&amp;")
+            .replace('<', "&lt;")
+            .replace('>', "&gt;")
+            .replace('\'', "&#39;");
         assert!(page.contains(&escaped), "caution shown: {caution}");
     }
 }

@@ -202,6 +202,11 @@ struct CheckArgs {
     /// Exit with code 1 when the proposal is not feasible.
     #[arg(long)]
     strict: bool,
+    /// Check the proposal alone: do not solve the scenario for the best
+    /// plan (best_cost is then null, and only past-due and release-now
+    /// actions are given).
+    #[arg(long)]
+    no_solve: bool,
     #[command(flatten)]
     freeze: Freeze,
     #[command(flatten)]
@@ -215,7 +220,8 @@ struct CompareArgs {
     /// The second scenario folder (B); without it, B is A changed by --set.
     b: Option<PathBuf>,
     /// Change B: KEY[.ID]=N sets every bucket to N, KEY[.ID]=N% scales to N
-    /// percent. Keys: capacity and overtime (of a resource, or all),
+    /// percent, KEY[.ID]=+N or -N adds or takes away N in every bucket,
+    /// +N% or -N% raises or lowers by N percent. Keys: capacity and overtime (of a resource, or all),
     /// demand, setup_cost, holding_cost and unit_cost (of an item, or all),
     /// frozen_periods. Repeatable, applied in order.
     #[arg(long = "set", value_name = "KEY=VALUE")]
@@ -460,13 +466,17 @@ fn check(args: CheckArgs) -> Result<i32> {
     let milp = args.limits.milp()?;
     let scenario = args.freeze.read(&args.dir)?;
     let proposal = lotwright::input::read_orders(&args.orders, &scenario)?;
-    let report = lotwright::check::check(&scenario, &proposal, &milp);
+    let report = if args.no_solve {
+        lotwright::check::check_only(&scenario, &proposal)
+    } else {
+        lotwright::check::check(&scenario, &proposal, &milp)
+    };
     if args.json {
         emit_json(&report::json::check(&scenario, &report))?;
     } else {
         emit(&report::table::check(&scenario, &report))?;
     }
-    Ok(if report.best_status == Status::Unknown {
+    Ok(if report.best_status == Some(Status::Unknown) {
         4
     } else if args.strict && !report.evaluation.feasible {
         1
@@ -517,7 +527,12 @@ fn compare(args: CompareArgs) -> Result<i32> {
     let (result_a, result_b) = (planned_a.chosen, planned_b.chosen);
     let mut b_name = b_dir.display().to_string();
     if !overrides.is_empty() {
-        let changes: Vec<&str> = args.set.iter().map(String::as_str).collect();
+        // Each change as typed, and what it does in words (a signed value
+        // is an addition, which the bare text may not make plain).
+        let changes: Vec<String> = overrides
+            .iter()
+            .map(|o| format!("{} ({})", o.text, report::notes::change(o)))
+            .collect();
         b_name = format!("{b_name} with {}", changes.join(", "));
     }
     let comparison = Comparison::new(

@@ -516,7 +516,13 @@ fn read_capacity(dir: &Path, calendar: &Calendar, resources: &mut [Resource]) ->
         let what = format!("resource {}", resources[r].id);
         refuse_second_override(&mut seen, &file, record, (r, t), &what)?;
         if let Some(cell) = file.cell(record, "capacity") {
-            resources[r].capacity[t] = cell.non_negative()?;
+            let capacity = cell.non_negative()?;
+            resources[r].capacity[t] = capacity;
+            // A bucket of capacity 0 is a shutdown: its overtime closes too,
+            // unless the row itself gives overtime for it.
+            if capacity == 0.0 {
+                resources[r].overtime_capacity[t] = 0.0;
+            }
         }
         if let Some(cell) = file.cell(record, "overtime_capacity") {
             resources[r].overtime_capacity[t] = cell.non_negative()?;

@@ -267,11 +267,23 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
             ),
             _ => String::new(),
         };
+        let why = side
+            .result
+            .evaluation
+            .infeasibility()
+            .map(|why| {
+                format!(
+                    " Why: {}.",
+                    super::reasons::infeasibility(&side.scenario, &why)
+                )
+            })
+            .unwrap_or_default();
         let _ = write!(
             out,
-            "<p>{label}: {}{}.</p>",
+            "<p>{label}: {}{}.{}</p>",
             escape(&status),
-            escape(&bound)
+            escape(&bound),
+            escape(&why)
         );
     }
     let unit = currency.map(|c| format!(", {c}")).unwrap_or_default();
@@ -479,6 +491,13 @@ pub fn compare(c: &crate::compare::Comparison) -> String {
         out.push_str("</section>");
     }
     out.push_str("<section><h2>Items</h2><p>Every item's cost, setups and average stock under each plan, the largest change first.</p>");
+    if !c.items_compared() {
+        let _ = write!(
+            out,
+            "<p>{}</p>",
+            escape(&super::notes::no_plan_to_compare(c))
+        );
+    }
     let items = c.items_by_change();
     let dash = || "-".to_string();
     let rows: Vec<Vec<(String, bool)>> = items

@@ -198,6 +198,13 @@ fn clean_numbers(value: &mut Value) {
     }
 }
 
+/// Why a plan is infeasible, as data (`null` when it is feasible).
+fn reason(evaluation: &Evaluation) -> Value {
+    let mut value = serde_json::to_value(evaluation.infeasibility()).unwrap_or(Value::Null);
+    clean_numbers(&mut value);
+    value
+}
+
 fn row(scenario: &Scenario, result: &MethodResult, reference: Option<f64>) -> Value {
     let evaluation = &result.evaluation;
     let total = evaluation.total_cost();
@@ -228,6 +235,7 @@ fn row(scenario: &Scenario, result: &MethodResult, reference: Option<f64>) -> Va
         "overtime_used": overtime,
         "fill_rate": clean(evaluation.fill_rate()),
         "extra_cost_percent": extra,
+        "reason": reason(evaluation),
         "notes": result.notes,
     })
 }
@@ -293,10 +301,43 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Value {
     value
 }
 
+/// An order of `crate::actions` (`null` for none).
+fn order_ref(scenario: &Scenario, order: Option<crate::actions::OrderRef>) -> Value {
+    order.map_or(Value::Null, |o| {
+        json!({
+            "period": o.period,
+            "date": scenario.calendar.label(o.period - 1),
+            "release_period": o.release_period,
+            "quantity": clean(o.quantity),
+        })
+    })
+}
+
 /// The JSON of `check`.
 pub fn check(scenario: &Scenario, report: &CheckReport) -> Value {
     let evaluation = &report.evaluation;
     let pegged = pegs(scenario, evaluation);
+    let actions: Vec<Value> = report
+        .actions
+        .iter()
+        .map(|a| {
+            let order = a.order.or(a.target);
+            json!({
+                "item": a.item,
+                "action": a.kind,
+                "period": a.order.map(|o| o.period),
+                "release_period": a.order.map(|o| o.release_period),
+                "quantity": a.order.map(|o| clean(o.quantity)),
+                "to_period": a.target.map(|o| o.period),
+                "to_release_period": a.target.map(|o| o.release_period),
+                "to_quantity": a.target.map(|o| clean(o.quantity)),
+                "by": a.by,
+                "release_now": a.release_now,
+                "message": super::actions::action(scenario, a),
+                "date": order.map(|o| scenario.calendar.label(o.period - 1)),
+            })
+        })
+        .collect();
     let mut value = json!({
         "scenario": scenario.name,
         "units": units(scenario),
@@ -305,15 +346,29 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> Value {
         "costs": costs(&evaluation.costs),
         "setups": evaluation.setups,
         "best_cost": report.best.as_ref().map(|b| clean(b.total_cost())),
-        "best_status": report.best_status.name(),
+        "best_status": report.best_status.map(|s| s.name()),
+        "best_skipped": report.skipped,
+        "best_note": super::actions::best_note(report),
+        "best_orders": report.best.as_ref().map_or_else(Vec::new, |b| orders(scenario, &b.plan)),
         "saving": report.saving().map(clean),
         "findings": report.findings,
+        "actions": actions,
         "pegging": pegging(scenario, &pegged),
     });
     if let (Value::Object(map), Value::Object(extra)) =
         (&mut value, faults(scenario, evaluation, &pegged))
     {
         map.extend(extra);
+    }
+    // Each shortage with the proposed orders around it.
+    if let Some(Value::Array(list)) = value.get_mut("shortages") {
+        for (entry, around) in list.iter_mut().zip(&report.shortage_orders) {
+            if let Value::Object(map) = entry {
+                map.insert("order".into(), order_ref(scenario, around.order));
+                map.insert("next_order".into(), order_ref(scenario, around.next_order));
+                map.insert("cause".into(), json!(super::actions::shortage(around)));
+            }
+        }
     }
     value
 }
@@ -342,6 +397,7 @@ fn side(side: &crate::compare::Side) -> Value {
         "ending_stock_value": clean(evaluation.ending_stock_value()),
         "overtime_used": overtime_used(&side.scenario, evaluation),
         "fill_rate": clean(evaluation.fill_rate()),
+        "reason": reason(evaluation),
         "notes": result.notes,
         "cautions": cautions(&side.scenario, result),
     })
@@ -436,6 +492,7 @@ pub fn compare(c: &crate::compare::Comparison) -> Value {
             "price": added.price.map(clean),
             "cost": added.cost().map(clean),
         })).collect::<Vec<_>>(),
+        "items_compared": c.items_compared(),
         "items": items,
         "resources": resources,
     })

@@ -1,6 +1,7 @@
 //! Renderers: pure functions from results to text or bytes. They format;
 //! they never compute costs or feasibility (that is `eval`'s job).
 
+pub mod actions;
 mod charts;
 pub mod csv;
 pub mod eoq;
@@ -8,6 +9,7 @@ pub mod figures;
 pub mod html;
 pub mod json;
 pub mod notes;
+pub mod reasons;
 mod svg;
 pub mod table;
 pub mod xlsx;

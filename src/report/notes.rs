@@ -211,3 +211,55 @@ pub fn compare_sentences(
     }
     sentences
 }
+
+/// What a `compare --set` change does, in words: "capacity of LINE-1
+/// raised by 10 in every period".
+pub fn change(o: &crate::compare::Override) -> String {
+    use crate::compare::{Change, Field};
+    let of = |noun: &str, resource: bool| match (&o.target, resource) {
+        (Some(id), true) => format!("{noun} of {id}"),
+        (Some(id), false) => format!("{noun} of item {id}"),
+        (None, true) => format!("{noun} of every resource"),
+        (None, false) => format!("{noun} of every item"),
+    };
+    let what = match o.field {
+        Field::Capacity => of("capacity", true),
+        Field::Overtime => of("overtime capacity", true),
+        Field::Demand => of("demand", false),
+        Field::SetupCost => of("setup cost", false),
+        Field::HoldingCost => of("holding cost", false),
+        Field::UnitCost => of("unit cost", false),
+        Field::FrozenPeriods => "frozen horizon".to_string(),
+    };
+    if o.field == Field::FrozenPeriods {
+        return match o.change {
+            Change::Set(n) => format!("{what} set to {} periods", quantity(n)),
+            Change::Add(n) if n >= 0.0 => format!("{what} lengthened by {} periods", quantity(n)),
+            Change::Add(n) => format!("{what} shortened by {} periods", quantity(-n)),
+            _ => what,
+        };
+    }
+    match o.change {
+        Change::Set(n) => format!("{what} set to {} in every period", quantity(n)),
+        Change::Percent(p) => format!("{what} at {} % of its value in every period", quantity(p)),
+        Change::Add(n) if n >= 0.0 => format!("{what} raised by {} in every period", quantity(n)),
+        Change::Add(n) => format!("{what} lowered by {} in every period", quantity(-n)),
+        Change::AddPercent(p) if p >= 0.0 => {
+            format!("{what} raised by {} % in every period", quantity(p))
+        }
+        Change::AddPercent(p) => format!("{what} lowered by {} % in every period", quantity(-p)),
+    }
+}
+
+/// Why the items of a comparison are not set side by side: a side has no
+/// plan of its method, only the orders shown for reference.
+pub fn no_plan_to_compare(c: &crate::compare::Comparison) -> String {
+    let who = match (c.a.has_plan(), c.b.has_plan()) {
+        (false, false) => "Neither A nor B has a plan",
+        (false, true) => "A has no plan",
+        _ => "B has no plan",
+    };
+    format!(
+        "Items not compared: {who} (see its status above); the orders shown in its place are lot-for-lot for reference, so item-by-item differences would mean nothing."
+    )
+}

@@ -197,7 +197,7 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome, detail: &Detail) -> String {
         wrap(&format!("Note: {note}"), "  ", &mut out);
     }
     comparison(scenario, outcome, &mut out);
-    faults(scenario, &chosen.evaluation, &mut out);
+    faults(scenario, &chosen.evaluation, None, &mut out);
     orders(scenario, chosen, detail, &mut out);
     let few = scenario.items.len() <= FEW_ITEMS;
     let mut shown = 0;
@@ -253,6 +253,12 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
         grid.push(row);
     }
     grid.render(out);
+    for r in rows {
+        if let Some(why) = r.evaluation.infeasibility() {
+            let words = super::reasons::infeasibility(scenario, &why);
+            wrap(&format!("{} is infeasible: {words}", r.method), "  ", out);
+        }
+    }
     let reference = rows
         .iter()
         .find(|r| r.is_exact() && r.evaluation.feasible)
@@ -341,18 +347,28 @@ fn comparison(scenario: &Scenario, outcome: &Outcome, out: &mut String) {
     }
 }
 
-fn faults(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
+/// Shortages, overloads and rule breaches; `around`, for a checked
+/// proposal, adds to each shortage the order that leaves it short.
+fn faults(
+    scenario: &Scenario,
+    evaluation: &Evaluation,
+    around: Option<&[crate::actions::ShortageOrders]>,
+    out: &mut String,
+) {
     if !evaluation.shortages.is_empty() {
         let _ = writeln!(out, "\nShortages");
         let bom = scenario.has_bom();
-        let mut grid = if bom {
-            Grid::new(&["item", "period", "short", "unit", "leaves short"])
-        } else {
-            Grid::new(&["item", "period", "short", "unit"])
-        };
+        let mut header = vec!["item", "period", "short", "unit"];
+        if bom {
+            header.push("leaves short");
+        }
+        if around.is_some() {
+            header.push("why");
+        }
+        let mut grid = Grid::new(&header);
         let pegged = pegs(scenario, evaluation);
         let causes = shortage_causes(scenario, evaluation, &pegged);
-        for (s, cause) in evaluation.shortages.iter().zip(&causes) {
+        for (k, (s, cause)) in evaluation.shortages.iter().zip(&causes).enumerate() {
             let mut row = vec![
                 s.item.clone(),
                 s.period.to_string(),
@@ -371,6 +387,9 @@ fn faults(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
                     whose.push(format!("own demand ({})", quantity(cause.own_demand)));
                 }
                 row.push(whose.join("; "));
+            }
+            if let Some(orders) = around.and_then(|a| a.get(k)) {
+                row.push(super::actions::shortage(orders));
             }
             grid.push(row);
         }
@@ -414,7 +433,7 @@ fn faults(scenario: &Scenario, evaluation: &Evaluation, out: &mut String) {
                 ViolationKind::BelowMinLot => "lot below min_lot",
                 ViolationKind::NotLotMultiple => "lot not a lot_multiple",
                 ViolationKind::AboveMaxLot => "lot above max_lot",
-                ViolationKind::ReleaseBeforeStart => "release before period 1",
+                ViolationKind::ReleaseBeforeStart => "past due: released before period 1",
                 ViolationKind::InsideFrozenHorizon => "new order in the frozen horizon",
                 ViolationKind::SafetyStock => "stock below safety stock",
                 ViolationKind::EndingStock => "ending stock below target",
@@ -634,7 +653,11 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> String {
                 status_words(scenario, best),
             );
         }
-        None if report.best_status == Status::Infeasible => {
+        None if report.skipped => {
+            let note = super::actions::best_note(report).unwrap_or_default();
+            wrap(&format!("Best plan: {note}."), "", &mut out);
+        }
+        None if report.best_status == Some(Status::Infeasible) => {
             let _ = writeln!(out, "The scenario itself has no feasible plan.");
         }
         None => {
@@ -645,7 +668,37 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> String {
             );
         }
     }
-    faults(scenario, evaluation, &mut out);
+    faults(
+        scenario,
+        evaluation,
+        Some(&report.shortage_orders),
+        &mut out,
+    );
+    if !report.actions.is_empty() {
+        let _ = writeln!(
+            out,
+            "\nWhat to do with each order{}",
+            if report.best.is_some() {
+                " (against the best plan)"
+            } else {
+                ""
+            }
+        );
+        for a in &report.actions {
+            let words = super::actions::action(scenario, a);
+            let line = match a.order {
+                Some(o) => format!(
+                    "{} {} received in period {} (released in period {}): {words}",
+                    a.item,
+                    quantity(o.quantity),
+                    o.period,
+                    o.release_period
+                ),
+                None => format!("{}: {words}", a.item),
+            };
+            wrap(&line, "", &mut out);
+        }
+    }
     if !report.findings.is_empty() {
         let _ = writeln!(out, "\nWhere the proposal loses money");
         let mut grid = Grid::new(&["item", "extra cost", "why"]);
@@ -714,6 +767,10 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
             "  ",
             &mut out,
         );
+        if let Some(why) = side.result.evaluation.infeasibility() {
+            let words = super::reasons::infeasibility(&side.scenario, &why);
+            wrap(&format!("Why: {words}"), "  ", &mut out);
+        }
         for note in &side.result.notes {
             wrap(&format!("Note: {note}"), "  ", &mut out);
         }
@@ -786,13 +843,18 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
             _ => true,
         })
         .collect();
-    let _ = writeln!(
-        out,
-        "\nItems that differ: {} of {}",
-        differing.len(),
-        c.items.len()
-    );
-    if !differing.is_empty() {
+    if !c.items_compared() {
+        let _ = writeln!(out);
+        wrap(&super::notes::no_plan_to_compare(c), "", &mut out);
+    } else {
+        let _ = writeln!(
+            out,
+            "\nItems that differ: {} of {}",
+            differing.len(),
+            c.items.len()
+        );
+    }
+    if c.items_compared() && !differing.is_empty() {
         let mut grid = Grid::new(&[
             "item",
             "cost A",

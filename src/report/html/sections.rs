@@ -26,6 +26,10 @@ pub(super) fn comparison_table(scenario: &Scenario, outcome: &Outcome, out: &mut
         "end stock value",
         "vs exact plan",
     ]);
+    let show_why = rows.iter().any(|r| !r.evaluation.feasible);
+    if show_why {
+        header.push("why infeasible");
+    }
     let cells: Vec<Vec<(String, bool)>> = rows
         .iter()
         .map(|r| {
@@ -56,6 +60,11 @@ pub(super) fn comparison_table(scenario: &Scenario, outcome: &Outcome, out: &mut
                 num(figures::extra_over_optimal(outcome, r)
                     .map_or("-".into(), |f| format!("{:+.1} %", 100.0 * f))),
             ]);
+            if show_why {
+                row.push(text(e.infeasibility().map_or(String::new(), |why| {
+                    crate::report::reasons::infeasibility(scenario, &why)
+                })));
+            }
             row
         })
         .collect();

@@ -374,6 +374,7 @@ pub(super) fn comparison(
         (format!("Ending stock value{money}"), 13.0),
         ("Cost over exact plan".to_string(), 10.0),
         (format!("Lower bound{money}"), 14.0),
+        ("Why infeasible".to_string(), 60.0),
     ];
     let columns: Vec<(&str, f64)> = headers.iter().map(|(h, w)| (h.as_str(), *w)).collect();
     let rows: Vec<Vec<Cell>> = outcome
@@ -403,6 +404,9 @@ pub(super) fn comparison(
                 Cell::Money(e.ending_stock_value()),
                 figures::extra_over_optimal(outcome, r).map_or(Cell::Empty, Cell::Percent),
                 r.lower_bound.map_or(Cell::Empty, Cell::Money),
+                e.infeasibility().map_or(Cell::Empty, |why| {
+                    Cell::Text(crate::report::reasons::infeasibility(scenario, &why))
+                }),
             ]
         })
         .collect();
