@@ -64,6 +64,7 @@ fn seasonal_item(periods: usize) -> Item {
         backlog_cost: None,
         fixed_lot: None,
         ending_stock: 0.0,
+        forecast_error: None,
         receipts: vec![0.0; periods],
         firm: vec![0.0; periods],
         demand,

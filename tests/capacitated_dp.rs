@@ -40,6 +40,7 @@ fn scenario(
         backlog_cost: backlog,
         fixed_lot: None,
         ending_stock: 0.0,
+        forecast_error: None,
         demand,
         receipts: vec![0.0; periods],
         firm: vec![0.0; periods],

@@ -90,6 +90,12 @@ struct Freeze {
     /// in scenario.toml (0 unfreezes).
     #[arg(long, value_name = "N")]
     frozen: Option<usize>,
+    /// A target cycle service level (for example 0.95): an item that gives
+    /// forecast_error (items.csv) gets a safety stock of k x forecast_error
+    /// x sqrt(lead time + 1), where that is above its own; in roll, the
+    /// forecast errors seen in the history set it too.
+    #[arg(long, value_name = "P")]
+    service_level: Option<f64>,
 }
 
 impl Freeze {
@@ -105,6 +111,14 @@ impl Freeze {
                 )));
             }
             scenario.frozen = frozen;
+        }
+        if let Some(level) = self.service_level {
+            if !(level.is_finite() && (0.5..1.0).contains(&level)) {
+                return Err(Error::usage(format!(
+                    "--service-level must be a fraction from 0.5 up to 1 (0.95 = 95 %), got {level}"
+                )));
+            }
+            lotwright::model::safety::apply(&mut scenario, level);
         }
         Ok(scenario)
     }
@@ -270,12 +284,6 @@ struct RollArgs {
     /// without it; the realised cost does not include it.
     #[arg(long, value_name = "C")]
     change_cost: Option<f64>,
-    /// A target cycle service level (for example 0.95): each week's safety
-    /// stock becomes k x sigma x sqrt(lead time + 1), sigma the standard
-    /// deviation of the one-week-ahead forecast errors seen so far in the
-    /// history (from 4 errors on), where that is above the item's own.
-    #[arg(long, value_name = "P")]
-    service_level: Option<f64>,
     /// Print one JSON object on stdout instead of tables.
     #[arg(long)]
     json: bool,
@@ -598,13 +606,6 @@ fn roll_command(args: RollArgs) -> Result<i32> {
         }
         other => other.unwrap_or(0.0),
     };
-    if let Some(level) = args.service_level {
-        if !(level.is_finite() && (0.5..1.0).contains(&level)) {
-            return Err(Error::usage(format!(
-                "--service-level must be a fraction from 0.5 up to 1 (0.95 = 95 %), got {level}"
-            )));
-        }
-    }
     let scenario = args.freeze.read(&args.dir)?;
     let frozen = scenario.frozen;
     if frozen >= args.horizon {
@@ -650,7 +651,7 @@ fn roll_command(args: RollArgs) -> Result<i32> {
             change_cost: cost,
             method,
             milp: milp.clone(),
-            service_level: args.service_level,
+            service_level: args.freeze.service_level,
         };
         results.push(roll(&scenario, &history, &options, &progress)?);
     }
@@ -664,7 +665,7 @@ fn roll_command(args: RollArgs) -> Result<i32> {
         change_cost,
         time_limit: milp.time_limit,
         results: &results,
-        safety: args.service_level.map(|level| {
+        safety: args.freeze.service_level.map(|level| {
             (
                 level,
                 lotwright::roll::safety_estimates(&scenario, &history, level, history.len()),

@@ -35,6 +35,7 @@ const ITEMS: Schema = Schema {
         "backlog_cost",
         "fixed_lot",
         "ending_stock",
+        "forecast_error",
         "unit",
     ],
     required: &["item", "setup_cost"],
@@ -317,6 +318,10 @@ fn read_items(dir: &Path, calendar: &Calendar) -> Result<(Vec<Item>, Vec<Option<
             backlog_cost,
             fixed_lot,
             ending_stock: optional(&file, record, "ending_stock", 0.0)?,
+            forecast_error: file
+                .cell(record, "forecast_error")
+                .map(|cell| cell.non_negative())
+                .transpose()?,
             demand: vec![0.0; periods],
             receipts: vec![0.0; periods],
             firm: vec![0.0; periods],

@@ -61,6 +61,10 @@ pub struct Item {
     pub fixed_lot: Option<f64>,
     /// Stock wanted at the end of the horizon (a floor on the last bucket's stock).
     pub ending_stock: f64,
+    /// Standard deviation of the one-bucket-ahead forecast error, where
+    /// items.csv gives it (`forecast_error`): with a target service level
+    /// it sets the safety stock (`safety`).
+    pub forecast_error: Option<f64>,
     /// Gross requirement by bucket.
     pub demand: Vec<f64>,
     /// Scheduled receipts (open orders already released), by receipt bucket.
@@ -95,6 +99,7 @@ impl Item {
             backlog_cost: None,
             fixed_lot: None,
             ending_stock: 0.0,
+            forecast_error: None,
             demand: demand.to_vec(),
             receipts: vec![0.0; periods],
             firm: vec![0.0; periods],

@@ -77,6 +77,18 @@ pub fn error_sd(errors: &[f64]) -> Option<f64> {
     Some((ss / (n - 1) as f64).sqrt())
 }
 
+/// Sets the safety stock of every item of `scenario` that gives a
+/// forecast error to k x error x sqrt(lead time + 1) for the cycle service
+/// level `level`, rounded to a whole unit, where that is above its own.
+pub fn apply(scenario: &mut super::Scenario, level: f64) {
+    for item in &mut scenario.items {
+        if let Some(sigma) = item.forecast_error {
+            let stock = safety_stock(level, sigma, item.lead_time).round();
+            item.safety_stock = item.safety_stock.max(stock);
+        }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

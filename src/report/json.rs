@@ -264,6 +264,8 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Value {
                 "ending_stock": clean(record.ending_stock),
                 "ending_stock_value": clean(record.ending_stock_value),
                 "fill_rate": clean(record.fill_rate),
+                "safety_stock": clean(item.safety_stock),
+                "forecast_error": item.forecast_error.map(clean),
             })
         })
         .collect();

@@ -172,7 +172,7 @@ pub fn compare_sentences(
         let result = &side.result;
         if result.is_exact() && !result.evaluation.feasible {
             sentences.push(format!(
-                "{label} has no feasible plan to compare with (see its status); the differences below are against the plan shown for it, which breaks a constraint."
+                "{label}'s figures below are those of the plan shown in its place, which breaks a constraint: {label} has no plan of its own to compare (see its status)."
             ));
         }
     }

@@ -764,7 +764,7 @@ pub fn compare(c: &crate::compare::Comparison, all_items: bool) -> String {
     for (label, side) in [("A", a), ("B", b)] {
         wrap(
             &format!("{label}: {}", status_words(&side.scenario, &side.result)),
-            "  ",
+            "",
             &mut out,
         );
         if let Some(why) = side.result.evaluation.infeasibility() {

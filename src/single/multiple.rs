@@ -37,6 +37,7 @@ pub fn solve(item: &Item) -> Option<ExactPlan> {
         initial_stock: 0.0,
         safety_stock: 0.0,
         ending_stock: 0.0,
+        forecast_error: None,
         lot_multiple: None,
         receipts: vec![0.0; item.periods()],
         ..item.clone()
