@@ -66,6 +66,7 @@ fn seasonal_item(periods: usize) -> Item {
         ending_stock: 0.0,
         receipts: vec![0.0; periods],
         firm: vec![0.0; periods],
+        quantity_change: None,
         demand,
     }
 }

@@ -43,6 +43,7 @@ fn scenario(
         demand,
         receipts: vec![0.0; periods],
         firm: vec![0.0; periods],
+        quantity_change: None,
     };
     Scenario {
         name: "t".into(),
