@@ -73,13 +73,17 @@ fn a_price_per_unit_moved_keeps_an_order_from_being_resized() {
     let plain = roll(&base, &history, &options(0.0, 0.0), &Quiet).expect("a run");
     assert!(close(plain.weeks[0].plan_cost, 16.0));
     assert!(close(plain.weeks[1].plan_cost, 22.0));
-    let s = plain.weeks[1].stability.expect("week 2 has a plan before it");
+    let s = plain.weeks[1]
+        .stability
+        .expect("week 2 has a plan before it");
     assert_eq!((s.changed, s.unchanged, s.added, s.removed), (1, 0, 0, 0));
     assert!(close(s.quantity_moved, 3.0));
 
     // A price per order changed does not see a resize.
     let per_order = roll(&base, &history, &options(100.0, 0.0), &Quiet).expect("a run");
-    let s = per_order.weeks[1].stability.expect("week 2 has a plan before it");
+    let s = per_order.weeks[1]
+        .stability
+        .expect("week 2 has a plan before it");
     assert_eq!(s.changed, 1);
     assert!(close(s.quantity_moved, 3.0));
 
@@ -87,7 +91,9 @@ fn a_price_per_unit_moved_keeps_an_order_from_being_resized() {
     assert_eq!(priced.label, "exact+per-unit");
     assert_eq!(priced.weeks[1].status, Status::Optimal);
     assert!(close(priced.weeks[1].plan_cost, 26.0));
-    let s = priced.weeks[1].stability.expect("week 2 has a plan before it");
+    let s = priced.weeks[1]
+        .stability
+        .expect("week 2 has a plan before it");
     assert_eq!((s.changed, s.unchanged, s.added, s.removed), (0, 1, 0, 0));
     assert!(close(s.quantity_moved, 0.0));
     // What was carried out: 12 in week 2 either way (week 1 orders

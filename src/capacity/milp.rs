@@ -909,8 +909,7 @@ fn flow_model(
         let q = vars.add(variable().min(0.0));
         if let Some(y) = setup[t] {
             *objective += item.unit_cost[t - item.lead_time] * q;
-            let extra =
-                item.min_lot + item.lot_multiple.unwrap_or(0.0) + item.kept_release(t);
+            let extra = item.min_lot + item.lot_multiple.unwrap_or(0.0) + item.kept_release(t);
             let bound = if plain {
                 (total_need + extra).max(1.0)
             } else {
