@@ -67,6 +67,7 @@ fn seasonal_item(periods: usize) -> Item {
         forecast_error: None,
         receipts: vec![0.0; periods],
         firm: vec![0.0; periods],
+        quantity_change: None,
         demand,
     }
 }

@@ -16,11 +16,20 @@ pub struct Costs {
     pub unit: f64,
     pub backlog: f64,
     pub overtime: f64,
+    /// The price of units moved away from an earlier plan
+    /// (`model::QuantityChange`): 0, and left out of JSON, outside the
+    /// windows of a rolling plan that prices it.
+    #[serde(skip_serializing_if = "is_zero")]
+    pub change: f64,
+}
+
+fn is_zero(value: &f64) -> bool {
+    *value == 0.0
 }
 
 impl Costs {
     pub fn total(&self) -> f64 {
-        self.setup + self.holding + self.unit + self.backlog + self.overtime
+        self.setup + self.holding + self.unit + self.backlog + self.overtime + self.change
     }
 
     pub fn add(&mut self, other: &Costs) {
@@ -29,6 +38,7 @@ impl Costs {
         self.unit += other.unit;
         self.backlog += other.backlog;
         self.overtime += other.overtime;
+        self.change += other.change;
     }
 }
 
@@ -581,6 +591,11 @@ fn evaluate_item(
                 item.safety_stock,
                 binding,
             ));
+        }
+    }
+    if let Some(change) = &item.quantity_change {
+        for r in 0..periods {
+            costs.change += change.cost(r, releases[r] + firm_releases[r]);
         }
     }
     let total_demand: f64 = item.demand.iter().sum();

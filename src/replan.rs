@@ -108,6 +108,20 @@ pub fn free_part(scenario: &Scenario) -> Free {
                 demand,
                 receipts: (start..periods).map(arriving).collect(),
                 firm: vec![0.0; length],
+                // Firm orders released after the freeze become receipts
+                // here, so a change is priced on the planned part of the
+                // release: |firm + x - p| = |x - (p - firm)|.
+                quantity_change: item.quantity_change.as_ref().map(|c| {
+                    crate::model::QuantityChange {
+                        previous: (start..periods)
+                            .map(|r| {
+                                let firm = item.firm.get(r + item.lead_time).copied();
+                                c.previous[r].map(|p| p - firm.unwrap_or(0.0))
+                            })
+                            .collect(),
+                        ..c.clone()
+                    }
+                }),
                 ..item.clone()
             }
         })

@@ -14,7 +14,15 @@
 //!    a constant this is C times the number of order timings added or
 //!    removed, the binary part of |y - y_previous|; so moving an order
 //!    pays up to 2C, and every exact method (dynamic programs and MILP)
-//!    prices it as a setup cost;
+//!    prices it as a setup cost. A price U per unit moved, if asked for,
+//!    is set on the window as data (`model::QuantityChange`): every item
+//!    and release bucket the previous plan covers pays U x |x - p|, x the
+//!    window's release quantity (planned and firm) and p the previous
+//!    plan's. The evaluation prices it, the MILP prices it exactly with
+//!    two deviation columns per item and bucket, and items with it are
+//!    planned by the MILP rather than the dynamic programs, which cannot
+//!    price a convex cost of the quantity. The week's plan cost includes
+//!    both prices; the realised cost includes neither;
 //! 2. the plan's releases in bucket b are carried out (they become open
 //!    orders, and with a bill of material their components are taken out
 //!    of stock), and bucket b's demand happens: the first bucket of its own
@@ -48,6 +56,10 @@ pub struct RollOptions {
     /// previous plan had no order of the item, taken off it (down to 0)
     /// where it had one.
     pub change_cost: f64,
+    /// A price per unit moved: each window pays this times |x - p| for
+    /// every item and release bucket the previous plan covers, x the
+    /// window's release and p the previous plan's (`QuantityChange`).
+    pub change_cost_per_unit: f64,
     /// The method's output name (`exact` or a rule).
     pub method: String,
     pub milp: MilpOptions,
@@ -185,8 +197,12 @@ pub struct Week {
 /// The whole run of one method.
 #[derive(Debug, Clone)]
 pub struct RollResult {
-    /// The method, with `+change-cost` when a penalty was priced.
+    /// The method, with `+change-cost` when a penalty was priced (and
+    /// `+per-unit` when units moved were).
     pub label: String,
+    /// The prices of change the run planned with (`RollOptions`).
+    pub change_cost: f64,
+    pub change_cost_per_unit: f64,
     pub weeks: Vec<Week>,
     /// The buckets of the run and after it, the demand that happened.
     pub realised_scenario: Scenario,
@@ -312,7 +328,7 @@ pub fn roll(
                 }
             }
         }
-        if let Some((_, orders)) = &previous {
+        if let Some((prev_end, orders)) = &previous {
             // The previous plan's orders inside the freeze are pinned (the
             // scenario's own firm orders are in the window already).
             for order in orders {
@@ -321,6 +337,28 @@ pub fn roll(
                 if order.bucket < b + window.frozen && order.bucket >= b && receipt < end {
                     let own = base.items[order.item].firm[receipt];
                     item.firm[receipt - b] += (order.quantity - own).max(0.0);
+                }
+            }
+            if options.change_cost_per_unit > 0.0 {
+                // Release buckets both plans cover whose receipt falls in
+                // the window (the previous plan has no other).
+                let covered = (*prev_end).min(end);
+                for (i, item) in window.items.iter_mut().enumerate() {
+                    let previous = (0..end - b)
+                        .map(|t| {
+                            (b + t < covered && t + item.lead_time < end - b).then(|| {
+                                orders
+                                    .iter()
+                                    .filter(|o| o.item == i && o.bucket == b + t)
+                                    .map(|o| o.quantity)
+                                    .sum::<f64>()
+                            })
+                        })
+                        .collect();
+                    item.quantity_change = Some(crate::model::QuantityChange {
+                        per_unit: options.change_cost_per_unit,
+                        previous,
+                    });
                 }
             }
             if options.change_cost > 0.0 {
@@ -435,13 +473,17 @@ pub fn roll(
         }
     }
     let realised = evaluate(&realised_scenario, &plan);
-    let label = if options.change_cost > 0.0 {
-        format!("{}+change-cost", options.method)
-    } else {
-        options.method.clone()
-    };
+    let mut label = options.method.clone();
+    if options.change_cost > 0.0 {
+        label.push_str("+change-cost");
+    }
+    if options.change_cost_per_unit > 0.0 {
+        label.push_str("+per-unit");
+    }
     Ok(RollResult {
         label,
+        change_cost: options.change_cost,
+        change_cost_per_unit: options.change_cost_per_unit,
         weeks,
         realised_scenario,
         executed: plan,

@@ -351,7 +351,10 @@ pub fn solve_exact_with(
             .iter()
             .filter(|g| g.resources.is_empty())
             .flat_map(|g| &g.items)
-            .filter(|&&i| scenario.items[i].has_lot_constraints())
+            .filter(|&&i| {
+                let item = &scenario.items[i];
+                item.has_lot_constraints() || item.has_quantity_change()
+            })
             .count()
             .into(),
         workers: rayon::current_num_threads().max(1),
@@ -546,7 +549,24 @@ fn solve_group(
     if group.resources.is_empty() {
         for (i, exact) in single {
             let item = &scenario.items[i];
-            if item.has_lot_constraints() && !meets_lot_constraints(item, &exact.receipts) {
+            if item.has_quantity_change() {
+                // A price per unit moved is convex in the quantity: the
+                // dynamic programs on the zero-inventory property cannot
+                // price it, the MILP prices it exactly. The program's cost
+                // without the price bounds it below.
+                let share = shared.take(options, started);
+                solve_constrained(
+                    scenario,
+                    options,
+                    started,
+                    Some((share, exact.cost)),
+                    i,
+                    &mut plan,
+                    &mut component,
+                    &mut lower_bound,
+                    &mut notes,
+                );
+            } else if item.has_lot_constraints() && !meets_lot_constraints(item, &exact.receipts) {
                 // A lot multiple alone (whole units of a fractional
                 // forecast): the program on rounded requirements.
                 if let Some(rounded) = crate::single::multiple::solve(item) {
@@ -687,7 +707,7 @@ fn solve_constrained(
             size,
             single_dp::STATE_LIMIT
         )),
-        Err(NotApplicable::NotWhole) => {}
+        Err(NotApplicable::NotWhole | NotApplicable::QuantityChange) => {}
     }
     let mut resources: Vec<usize> = scenario.routings_of(i).map(|r| r.resource).collect();
     resources.sort_unstable();

@@ -44,6 +44,7 @@ fn scenario(
         demand,
         receipts: vec![0.0; periods],
         firm: vec![0.0; periods],
+        quantity_change: None,
     };
     Scenario {
         name: "t".into(),

@@ -116,6 +116,7 @@ fn roll_exact(dir: &tempfile::TempDir, snapshots: &[(&str, &str)]) -> lotwright:
         horizon: 2,
         frozen: 0,
         change_cost: 0.0,
+        change_cost_per_unit: 0.0,
         method: "exact".into(),
         milp: Default::default(),
         service_level: None,

@@ -83,6 +83,7 @@ fn options(horizon: usize, frozen: usize) -> RollOptions {
         horizon,
         frozen,
         change_cost: 0.0,
+        change_cost_per_unit: 0.0,
         method: "exact".into(),
         milp: Default::default(),
         service_level: None,
@@ -210,6 +211,7 @@ fn a_change_cost_keeps_the_earlier_timing() {
         &history,
         &RollOptions {
             change_cost: 60.0,
+            change_cost_per_unit: 0.0,
             ..options(3, 0)
         },
         &Quiet,

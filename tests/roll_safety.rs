@@ -93,6 +93,7 @@ fn a_run_with_a_service_level_plans_the_safety_stock() {
         horizon: 4,
         frozen: 0,
         change_cost: 0.0,
+        change_cost_per_unit: 0.0,
         method: "exact".into(),
         milp: Default::default(),
         service_level: level,

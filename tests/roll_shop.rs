@@ -81,6 +81,7 @@ fn options(method: &str, horizon: usize, frozen: usize) -> RollOptions {
         horizon,
         frozen,
         change_cost: 0.0,
+        change_cost_per_unit: 0.0,
         method: method.into(),
         milp: Default::default(),
         service_level: None,

@@ -239,6 +239,14 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
                 start_values.push((count, (start[k][j] / multiple).round()));
             }
         }
+        change_columns(
+            item,
+            &quantity,
+            &mut vars,
+            &mut objective,
+            &mut constant,
+            &mut constraints,
+        );
         columns.push(ItemColumns { setup, quantity });
     }
     // Capacity by resource and release bucket, with overtime.
@@ -461,6 +469,45 @@ pub fn solve(scenario: &Scenario, items: &[usize], options: &MilpOptions) -> Mil
     }
 }
 
+/// The price per unit moved away from an earlier plan
+/// (`model::QuantityChange`), exactly: in each release bucket r the earlier
+/// plan covers, two nonnegative deviation columns with x - p = up - down
+/// cost per_unit x (up + down). At the optimum one of them is 0, so the
+/// pair costs per_unit x |x - p|. Here x is the planned quantity received
+/// at r + lead time (firm orders are taken out by `crate::replan` before
+/// a program sees them; any left are added to x). A bucket whose receipt
+/// falls beyond the horizon has no order to decide: its price is a
+/// constant.
+pub(crate) fn change_columns(
+    item: &Item,
+    quantity: &[Expression],
+    vars: &mut ProblemVariables,
+    objective: &mut Expression,
+    constant: &mut f64,
+    constraints: &mut Vec<good_lp::Constraint>,
+) {
+    let Some(change) = item.quantity_change.as_ref().filter(|c| c.per_unit > 0.0) else {
+        return;
+    };
+    let periods = quantity.len();
+    for (r, previous) in change.previous.iter().enumerate() {
+        let Some(previous) = *previous else { continue };
+        let j = r + item.lead_time;
+        let firm = item.firm.get(j).copied().unwrap_or(0.0);
+        if j >= periods {
+            *constant += change.per_unit * (firm - previous).abs();
+            continue;
+        }
+        let up = vars.add(variable().min(0.0));
+        let down = vars.add(variable().min(0.0));
+        *objective += change.per_unit * up + change.per_unit * down;
+        constraints.push(constraint::eq(
+            quantity[j].clone() - up + down,
+            previous - firm,
+        ));
+    }
+}
+
 /// Sets one HiGHS option, the value read as a flag, a whole number, a
 /// decimal or else text; false when HiGHS refuses the name or the value.
 /// The HiGHS options every program here runs with: quiet, or logging to
@@ -538,6 +585,13 @@ pub fn cost_grid(scenario: &Scenario, items: &[usize]) -> Option<f64> {
         ]);
         if !quantities.into_iter().all(|&q| whole(q)) {
             return None;
+        }
+        if let Some(change) = &item.quantity_change {
+            // |x - p| is whole when p is; its price then joins the grid.
+            if !change.previous.iter().flatten().all(|&p| whole(p)) {
+                return None;
+            }
+            costs.push(change.per_unit);
         }
         costs.extend(&item.setup_cost);
         costs.extend(&item.unit_cost);
@@ -780,20 +834,28 @@ fn location_model(
         constraints.push(cover.eq(1.0));
     }
     // Surplus that min_lot or lot_multiple forces beyond the need stays in
-    // stock to the end; an optimal plan needs at most min_lot + multiple.
-    let has_surplus = item.min_lot > 0.0 || item.lot_multiple.is_some();
-    let most = if has_surplus {
-        item.min_lot + item.lot_multiple.unwrap_or(0.0)
-    } else {
-        0.0
+    // stock to the end; an optimal plan needs at most min_lot + multiple,
+    // and under a price per unit moved at most the earlier plan's release
+    // more (`Item::kept_release`).
+    let changes = item.has_quantity_change();
+    let has_surplus = item.min_lot > 0.0 || item.lot_multiple.is_some() || changes;
+    let most = |j: usize| {
+        if has_surplus {
+            item.min_lot + item.lot_multiple.unwrap_or(0.0) + item.kept_release(j)
+        } else {
+            0.0
+        }
     };
     if has_surplus {
         for j in 0..periods {
             let Some(y) = setup[j] else { continue };
+            if most(j) <= 0.0 {
+                continue;
+            }
             let surplus = vars.add(variable().min(0.0));
             let carrying: f64 = item.holding_cost[j..].iter().sum();
             *objective += (item.unit_cost[j - item.lead_time] + carrying) * surplus;
-            constraints.push((1.0 * surplus).leq(most * y));
+            constraints.push((1.0 * surplus).leq(most(j) * y));
             quantity[j] += surplus;
         }
     }
@@ -806,7 +868,7 @@ fn location_model(
         if shifted.net[t] > tolerance {
             need_from += shifted.net[t];
         }
-        reach[t] = need_from + most;
+        reach[t] = need_from + most(t);
     }
     for j in 0..periods {
         if let Some(y) = setup[j] {
@@ -847,7 +909,7 @@ fn flow_model(
         let q = vars.add(variable().min(0.0));
         if let Some(y) = setup[t] {
             *objective += item.unit_cost[t - item.lead_time] * q;
-            let extra = item.min_lot + item.lot_multiple.unwrap_or(0.0);
+            let extra = item.min_lot + item.lot_multiple.unwrap_or(0.0) + item.kept_release(t);
             let bound = if plain {
                 (total_need + extra).max(1.0)
             } else {

@@ -31,6 +31,10 @@ pub enum NotApplicable {
     NotWhole,
     /// The state space would pass the limit (its size is given).
     TooLarge(f64),
+    /// A price per unit moved from an earlier plan
+    /// (`model::QuantityChange`): it may pay to receive beyond the need,
+    /// which the stock bound here leaves out.
+    QuantityChange,
 }
 
 /// The program's plan and its cost (as `eval` computes it); `None` inside
@@ -42,6 +46,9 @@ pub type Solved = Option<(Vec<f64>, f64)>;
 pub fn solve(scenario: &Scenario, i: usize) -> Result<Solved, NotApplicable> {
     let item = &scenario.items[i];
     let periods = item.periods();
+    if item.has_quantity_change() {
+        return Err(NotApplicable::QuantityChange);
+    }
     let Some(multiple) = item.lot_multiple else {
         return Err(NotApplicable::NotWhole);
     };

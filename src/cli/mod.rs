@@ -281,9 +281,18 @@ struct RollArgs {
     /// Price a change of plan: an order in a bucket where the previous plan
     /// had none of that item costs C more, one where it had one C less
     /// (down to a setup cost of 0). The exact method then runs with and
-    /// without it; the realised cost does not include it.
-    #[arg(long, value_name = "C")]
-    change_cost: Option<f64>,
+    /// without it; the realised cost does not include it. Several values
+    /// (0,100,400, or the option repeated) run the exact method once per
+    /// value and show the frontier of realised cost against instability.
+    #[arg(long, value_name = "C", value_delimiter = ',')]
+    change_cost: Vec<f64>,
+    /// Price each unit moved: every plan pays U x |x - p| for each item and
+    /// release bucket the previous plan covers, x its release and p the
+    /// previous plan's. Several values as with --change-cost; given with
+    /// it, the exact method runs once per pair (C, U) and shows the
+    /// frontier.
+    #[arg(long, value_name = "U", value_delimiter = ',')]
+    change_cost_per_unit: Vec<f64>,
     /// Print one JSON object on stdout instead of tables.
     #[arg(long)]
     json: bool,
@@ -598,14 +607,33 @@ fn roll_command(args: RollArgs) -> Result<i32> {
     if args.horizon == 0 {
         return Err(Error::usage("--horizon must be at least 1 bucket"));
     }
-    let change_cost = match args.change_cost {
-        Some(c) if !(c.is_finite() && c >= 0.0) => {
-            return Err(Error::usage(format!(
-                "--change-cost must be a number of 0 or more, got {c}"
-            )))
+    let prices = |values: &[f64], option: &str| -> Result<Vec<f64>> {
+        let mut kept: Vec<f64> = Vec::new();
+        for &c in values {
+            if !(c.is_finite() && c >= 0.0) {
+                return Err(Error::usage(format!(
+                    "{option} must be a number of 0 or more, got {c}"
+                )));
+            }
+            if !kept.contains(&c) {
+                kept.push(c);
+            }
         }
-        other => other.unwrap_or(0.0),
+        if kept.is_empty() {
+            kept.push(0.0);
+        }
+        Ok(kept)
     };
+    let change_costs = prices(&args.change_cost, "--change-cost")?;
+    let per_unit_costs = prices(&args.change_cost_per_unit, "--change-cost-per-unit")?;
+    // Every pair (C, U) priced; (0, 0) is the exact method's own run.
+    let settings: Vec<(f64, f64)> = change_costs
+        .iter()
+        .flat_map(|&c| per_unit_costs.iter().map(move |&u| (c, u)))
+        .filter(|&(c, u)| c > 0.0 || u > 0.0)
+        .collect();
+    let frontier = settings.len() > 1 || per_unit_costs.iter().any(|&u| u > 0.0);
+    let change_cost = change_costs.iter().copied().fold(0.0, f64::max);
     let scenario = args.freeze.read(&args.dir)?;
     let frozen = scenario.frozen;
     if frozen >= args.horizon {
@@ -635,25 +663,31 @@ fn roll_command(args: RollArgs) -> Result<i32> {
             )));
         }
     }
-    let mut runs: Vec<(String, f64)> = Vec::new();
+    let mut runs: Vec<(String, f64, f64)> = Vec::new();
     for m in &methods {
-        runs.push((m.clone(), 0.0));
-        if m == solve::EXACT && change_cost > 0.0 {
-            runs.push((m.clone(), change_cost));
+        runs.push((m.clone(), 0.0, 0.0));
+        if m == solve::EXACT {
+            runs.extend(settings.iter().map(|&(c, u)| (m.clone(), c, u)));
         }
     }
     let progress = progress::RollLine::new(!args.json);
     let mut results = Vec::new();
-    for (method, cost) in runs {
+    for (method, cost, per_unit) in runs {
         let options = RollOptions {
             horizon: args.horizon,
             frozen,
             change_cost: cost,
+            change_cost_per_unit: per_unit,
             method,
             milp: milp.clone(),
             service_level: args.freeze.service_level,
         };
-        results.push(roll(&scenario, &history, &options, &progress)?);
+        let mut result = roll(&scenario, &history, &options, &progress)?;
+        if settings.len() > 1 && (cost > 0.0 || per_unit > 0.0) {
+            // Several priced runs of one method need names of their own.
+            result.label = report::table::priced_label(&result);
+        }
+        results.push(result);
     }
     progress.finish();
     let run = report::table::RollRun {
@@ -663,6 +697,7 @@ fn roll_command(args: RollArgs) -> Result<i32> {
         horizon: args.horizon,
         frozen,
         change_cost,
+        frontier,
         time_limit: milp.time_limit,
         results: &results,
         safety: args.freeze.service_level.map(|level| {

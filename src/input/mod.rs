@@ -325,6 +325,7 @@ fn read_items(dir: &Path, calendar: &Calendar) -> Result<(Vec<Item>, Vec<Option<
             demand: vec![0.0; periods],
             receipts: vec![0.0; periods],
             firm: vec![0.0; periods],
+            quantity_change: None,
         });
         rates.push(holding.rate());
     }

@@ -75,6 +75,37 @@ pub struct Item {
     /// They pay their setup and unit cost and load the resources like any
     /// order; lot constraints do not apply to them.
     pub firm: Vec<f64>,
+    /// A price on moving away from an earlier plan's quantities (set by
+    /// `crate::roll` on each week's window; `None` everywhere else).
+    pub quantity_change: Option<QuantityChange>,
+}
+
+/// A price per unit moved away from an earlier plan: the plan pays
+/// `per_unit` x |release - previous| in every release bucket the earlier
+/// plan covers, where release is the quantity released in the bucket
+/// (planned and firm orders together). The cost is convex in the
+/// quantity, so only programs that price each bucket's quantity as it is
+/// (the MILP, with two deviation columns per bucket) are exact for it;
+/// the dynamic programs on the zero-inventory property are not.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct QuantityChange {
+    /// Cost per unit of |release - previous|.
+    pub per_unit: f64,
+    /// The earlier plan's release quantity by release bucket (0 where it
+    /// had no order); `None` where the earlier plan does not cover the
+    /// bucket, which then pays nothing. A value may be below 0 only where
+    /// firm orders were taken out of the item (`crate::replan`).
+    pub previous: Vec<Option<f64>>,
+}
+
+impl QuantityChange {
+    /// The change cost of releasing `release` in bucket `r`.
+    pub fn cost(&self, r: usize, release: f64) -> f64 {
+        match self.previous.get(r).copied().flatten() {
+            Some(previous) => self.per_unit * (release - previous).abs(),
+            None => 0.0,
+        }
+    }
 }
 
 impl Item {
@@ -103,7 +134,38 @@ impl Item {
             demand: demand.to_vec(),
             receipts: vec![0.0; periods],
             firm: vec![0.0; periods],
+            quantity_change: None,
         }
+    }
+
+    /// What an earlier plan released for receipt in bucket `j`, beyond
+    /// the firm orders there (0 without a price per unit moved): under
+    /// that price an optimal plan may receive up to this much beyond
+    /// need, so programs that bound a receipt by the need widen the bound
+    /// by it. Lowering a receipt that lies above both this and its need
+    /// (by whole lot multiples, staying at or above the minimum lot)
+    /// lowers its unit, holding and change cost alike.
+    pub fn kept_release(&self, j: usize) -> f64 {
+        let Some(change) = self.quantity_change.as_ref().filter(|c| c.per_unit > 0.0) else {
+            return 0.0;
+        };
+        let Some(r) = j.checked_sub(self.lead_time) else {
+            return 0.0;
+        };
+        let firm = self.firm.get(j).copied().unwrap_or(0.0);
+        change
+            .previous
+            .get(r)
+            .copied()
+            .flatten()
+            .map_or(0.0, |p| (p - firm).max(0.0))
+    }
+
+    /// Whether a price per unit moved applies to any bucket of the item.
+    pub fn has_quantity_change(&self) -> bool {
+        self.quantity_change
+            .as_ref()
+            .is_some_and(|c| c.per_unit > 0.0 && c.previous.iter().any(Option::is_some))
     }
 
     /// True when the item carries a minimum lot, a lot multiple or a maximum lot.
@@ -388,6 +450,10 @@ impl Scenario {
                     demand: cut(&item.demand),
                     receipts: cut(&item.receipts),
                     firm: cut(&item.firm),
+                    quantity_change: item.quantity_change.as_ref().map(|c| QuantityChange {
+                        previous: c.previous[start..end].to_vec(),
+                        ..c.clone()
+                    }),
                     ..item.clone()
                 })
                 .collect(),

@@ -124,7 +124,13 @@ pub fn useful_receipts(scenario: &Scenario) -> Vec<Vec<f64>> {
                     }
                 }
             }
-            bound[i][j] = own + floor + slack + parents;
+            // A price per unit moved (`model::QuantityChange`) may make
+            // it pay to receive the earlier plan's quantity beyond need.
+            let kept = match (&item.quantity_change, j.checked_sub(item.lead_time)) {
+                (Some(change), Some(r)) => change.previous[r].unwrap_or(0.0).max(0.0),
+                _ => 0.0,
+            };
+            bound[i][j] = own + floor + slack + parents + kept;
         }
     }
     for row in &mut bound {
@@ -226,6 +232,18 @@ pub fn solve(scenario: &Scenario, options: &MilpOptions, start: Option<&Plan>) -
             receipt[i][j] = Some((y, x));
             orders.push((j, y, x, count));
         }
+        let quantity: Vec<Expression> = receipt[i]
+            .iter()
+            .map(|column| column.map_or_else(|| Expression::from(0.0), |(_, x)| x.into()))
+            .collect();
+        crate::capacity::milp::change_columns(
+            item,
+            &quantity,
+            &mut vars,
+            &mut objective,
+            &mut constant,
+            &mut constraints,
+        );
         columns.push(Columns { orders });
     }
     // Stock balance, floors and the end of the horizon.

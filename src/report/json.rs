@@ -65,14 +65,19 @@ fn overtime_used(scenario: &Scenario, evaluation: &Evaluation) -> Option<f64> {
 }
 
 fn costs(costs: &Costs) -> Value {
-    json!({
+    let mut value = json!({
         "setup": clean(costs.setup),
         "holding": clean(costs.holding),
         "unit": clean(costs.unit),
         "backlog": clean(costs.backlog),
         "overtime": clean(costs.overtime),
         "total": clean(costs.total()),
-    })
+    });
+    // Only a rolling plan's window prices units moved from an earlier plan.
+    if costs.change != 0.0 {
+        value["change"] = json!(clean(costs.change));
+    }
+    value
 }
 
 /// One order of a plan as the outputs list it.
@@ -586,7 +591,24 @@ pub fn roll(run: &super::table::RollRun) -> Value {
             })).collect::<Vec<_>>(),
         })
     });
-    json!({
+    let frontier = run.frontier.then(|| {
+        super::table::frontier_rows(run)
+            .into_iter()
+            .map(|r| {
+                let c = &r.realised.costs;
+                json!({
+                    "method": r.label,
+                    "change_cost": clean(r.change_cost),
+                    "change_cost_per_unit": clean(r.change_cost_per_unit),
+                    "cost_without_unit": clean(c.setup + c.holding + c.backlog + c.overtime),
+                    "fill_rate": clean(r.realised.fill_rate()),
+                    "units_moved": clean(r.stability.quantity_moved),
+                    "mean_share_changed": clean(r.mean_share_changed()),
+                })
+            })
+            .collect::<Vec<_>>()
+    });
+    let mut value = json!({
         "safety_stock": safety,
         "scenario": run.scenario.name,
         "bucket": calendar.kind.name(),
@@ -597,5 +619,9 @@ pub fn roll(run: &super::table::RollRun) -> Value {
         "change_cost": clean(run.change_cost),
         "time_limit": run.time_limit,
         "methods": methods,
-    })
+    });
+    if let Some(rows) = frontier {
+        value["frontier"] = json!(rows);
+    }
+    value
 }

@@ -944,6 +944,9 @@ pub struct RollRun<'a> {
     pub horizon: usize,
     pub frozen: usize,
     pub change_cost: f64,
+    /// Whether to show the frontier of realised cost against instability
+    /// over the exact method's prices of change (`frontier_rows`).
+    pub frontier: bool,
     /// Seconds each week's MILP may run.
     pub time_limit: f64,
     pub results: &'a [crate::roll::RollResult],
@@ -951,6 +954,33 @@ pub struct RollRun<'a> {
     /// stock from the forecast errors of the whole history (the last
     /// week's estimate; earlier weeks saw fewer errors).
     pub safety: Option<(f64, Vec<Option<crate::roll::SafetyEstimate>>)>,
+}
+
+/// The name of an exact run among several priced ones: the method and
+/// its prices of change, `exact C=100 U=0.5`.
+pub fn priced_label(result: &crate::roll::RollResult) -> String {
+    let method = result.label.split('+').next().unwrap_or_default();
+    format!(
+        "{method} C={} U={}",
+        money(result.change_cost),
+        money(result.change_cost_per_unit)
+    )
+}
+
+/// The runs of the frontier: the exact method's, by its prices of change
+/// (C, then U), the unpriced run first.
+pub fn frontier_rows<'a>(run: &RollRun<'a>) -> Vec<&'a crate::roll::RollResult> {
+    let mut rows: Vec<&crate::roll::RollResult> = run
+        .results
+        .iter()
+        .filter(|r| r.label.starts_with(crate::solve::EXACT))
+        .collect();
+    rows.sort_by(|a, b| {
+        (a.change_cost, a.change_cost_per_unit)
+            .partial_cmp(&(b.change_cost, b.change_cost_per_unit))
+            .unwrap_or(std::cmp::Ordering::Equal)
+    });
+    rows
 }
 
 /// The terminal page of `roll`: realised cost and service, plan stability
@@ -976,6 +1006,18 @@ pub fn roll(run: &RollRun) -> String {
         terms.push(format!(
             "change cost {} per order where the previous plan had none",
             money(run.change_cost)
+        ));
+    }
+    let per_unit: Vec<f64> = run
+        .results
+        .iter()
+        .map(|r| r.change_cost_per_unit)
+        .filter(|&u| u > 0.0)
+        .collect();
+    if let Some(&most) = per_unit.iter().max_by(|a, b| a.total_cmp(b)) {
+        terms.push(format!(
+            "change cost up to {} per unit moved from the previous plan",
+            money(most)
         ));
     }
     terms.push(format!(
@@ -1079,6 +1121,37 @@ pub fn roll(run: &RollRun) -> String {
         "  ",
         &mut out,
     );
+    if run.frontier {
+        let _ = writeln!(
+            out,
+            "\nRealised cost against instability: the exact method under each price of change"
+        );
+        let mut grid = Grid::new(&[
+            "change cost",
+            "per unit moved",
+            "cost",
+            "fill rate",
+            "units moved",
+            "orders changed",
+        ]);
+        for r in frontier_rows(run) {
+            let c = &r.realised.costs;
+            grid.push(vec![
+                money(r.change_cost),
+                money(r.change_cost_per_unit),
+                money(c.setup + c.holding + c.backlog + c.overtime),
+                format!("{:.1} %", 100.0 * r.realised.fill_rate()),
+                quantity(r.stability.quantity_moved.round()),
+                format!("{:.1} %", 100.0 * r.mean_share_changed()),
+            ]);
+        }
+        grid.render(&mut out);
+        wrap(
+            "change cost: added to an order's setup where the previous plan had none, taken off where it had one; per unit moved: paid on |release - previous release| in every bucket both plans cover; both priced in the plans, neither in the realised cost (setup, holding and other, as above)",
+            "  ",
+            &mut out,
+        );
+    }
     if let Some((level, estimates)) = &run.safety {
         let _ = writeln!(
             out,
