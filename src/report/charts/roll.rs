@@ -134,7 +134,10 @@ pub fn realised_cost(run: &RollRun, currency: &str) -> String {
     let bold = "font-weight=\"600\"";
     svg.text(cost_right, top - 12.0, "cost", "end", bold);
     svg.text(fill_right, top - 12.0, "fill rate", "end", bold);
-    svg.text(cut_right, top - 12.0, "units cut", "end", bold);
+    let any_cut = rows.iter().any(|r| r.units_cut() > 0.0);
+    if any_cut {
+        svg.text(cut_right, top - 12.0, "units cut", "end", bold);
+    }
     for (k, r) in rows.iter().enumerate() {
         let y = top + row_height * k as f64;
         let emphasis = if is_exact(r) { bold } else { "" };
@@ -157,26 +160,22 @@ pub fn realised_cost(run: &RollRun, currency: &str) -> String {
             "end",
             emphasis,
         );
-        let fill_rate = r.realised.fill_rate();
-        let style = if fill_rate < 1.0 - 1e-9 {
-            "fill=\"#b00\" font-weight=\"600\""
-        } else {
-            AXIS_TEXT
-        };
         svg.text(
             fill_right,
             y + 18.0,
-            &format!("{:.1} %", 100.0 * fill_rate),
-            "end",
-            style,
-        );
-        svg.text(
-            cut_right,
-            y + 18.0,
-            &crate::report::quantity(r.units_cut().round()),
+            &format!("{:.1} %", 100.0 * r.realised.fill_rate()),
             "end",
             AXIS_TEXT,
         );
+        if any_cut {
+            svg.text(
+                cut_right,
+                y + 18.0,
+                &crate::report::quantity(r.units_cut().round()),
+                "end",
+                AXIS_TEXT,
+            );
+        }
     }
     svg.finish()
 }
@@ -196,7 +195,7 @@ pub fn changes_by_week(run: &RollRun) -> String {
     // below them.
     let mut probe = Svg::new("", width, 10.0, "");
     let legend_bottom = legends(&mut probe, &entries, 8.0, width - right);
-    let top = legend_bottom + 22.0;
+    let top = legend_bottom + 36.0;
     let height = top + 220.0 + bottom;
     let unit = run.scenario.calendar.kind.name();
     let mut svg = Svg::new(
@@ -225,7 +224,14 @@ pub fn changes_by_week(run: &RollRun) -> String {
     let x = Scale::new((0.0, run.weeks.max(1) as f64), (left, width - right));
     value_axis(&mut svg, &values, step, &y, (left, width - right), true);
     week_axis(&mut svg, run, &x, height - bottom, 56.0);
-    for (k, r) in run.results.iter().enumerate() {
+    // The rules first, so that the exact method's line stays on top.
+    let order = run
+        .results
+        .iter()
+        .enumerate()
+        .filter(|(_, r)| !is_exact(r))
+        .chain(run.results.iter().enumerate().filter(|(_, r)| is_exact(r)));
+    for (k, r) in order {
         let style = line_style(k, is_exact(r));
         let points: Vec<(usize, f64)> = moved(r)
             .into_iter()
@@ -256,13 +262,7 @@ pub fn changes_by_week(run: &RollRun) -> String {
             svg.rect(cx - 2.5, cy - 2.5, 5.0, 5.0, &fill(&colour), Some(&tip));
         }
     }
-    svg.text(
-        left,
-        top - 8.0,
-        "units moved",
-        "start",
-        AXIS_TEXT,
-    );
+    svg.text(8.0, top - 12.0, "units moved", "start", AXIS_TEXT);
     svg.finish()
 }
 

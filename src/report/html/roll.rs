@@ -75,11 +75,17 @@ fn summary(run: &RollRun, cash: &Cash, out: &mut String) {
                 .filter(|r| r.realised.fill_rate() <= low + 5e-4)
                 .map(|r| r.label.as_str())
                 .collect();
+            let highest: Vec<&str> = results
+                .iter()
+                .filter(|r| r.realised.fill_rate() >= high - 5e-4)
+                .map(|r| r.label.as_str())
+                .collect();
             format!(
-                "The fill rate runs from {} ({}) to {}.",
+                "The fill rate (demand met from stock on time) runs from {} ({}) to {} ({}).",
                 percent(low, 1),
                 listed(&lowest),
-                percent(high, 1)
+                percent(high, 1),
+                listed(&highest)
             )
         });
     }
@@ -166,7 +172,7 @@ fn cautions(run: &RollRun, out: &mut String) {
         .filter(|r| r.realised.overtime_used() > 0.0)
         .map(|r| {
             format!(
-                "{} ({} units of capacity)",
+                "{} {}",
                 r.label,
                 quantity(r.realised.overtime_used().round())
             )
@@ -184,7 +190,7 @@ fn cautions(run: &RollRun, out: &mut String) {
                 .max_by_key(|(record, _)| record.longest_cover)
                 .map(|(record, item)| {
                     format!(
-                        "{} (up to {} of demand in one lot, item {})",
+                        "{} {} ({})",
                         r.label,
                         count(record.longest_cover, unit),
                         item.id
@@ -197,17 +203,15 @@ fn cautions(run: &RollRun, out: &mut String) {
     }
     out.push_str("<section class=\"cautions\"><h2>Check before following these plans</h2>");
     if !overtime.is_empty() {
-        let names: Vec<&str> = overtime.iter().map(String::as_str).collect();
         let _ = write!(out, "<p>{}</p>", escape(&format!(
-            "The orders carried out use overtime under {}. Overtime and shift patterns must respect local labour law and agreements; check with the people who set them.",
-            listed(&names)
+            "The orders carried out use overtime (units of capacity over the run): {}. Overtime and shift patterns must respect local labour law and agreements; check with the people who set them.",
+            overtime.join(", ")
         )));
     }
     if !ahead.is_empty() {
-        let names: Vec<&str> = ahead.iter().map(String::as_str).collect();
         let _ = write!(out, "<p>{}</p>", escape(&format!(
-            "The orders carried out build stock ahead of need under {}. Shelf life, quality holds and rules for regulated products (food, pharmaceuticals) can forbid building ahead; check them before releasing the orders.",
-            listed(&names)
+            "The orders carried out build stock ahead of need (the most demand one lot covers, and its item): {}. Shelf life, quality holds and rules for regulated products (food, pharmaceuticals) can forbid building ahead; check them before releasing the orders.",
+            ahead.join(", ")
         )));
     }
     out.push_str("</section>");
@@ -291,7 +295,7 @@ fn realised_section(run: &RollRun, out: &mut String) {
 
 fn stability_section(run: &RollRun, out: &mut String) {
     let unit = run.scenario.calendar.kind.name();
-    let _ = write!(out, "<section><h2>Plan changes by {unit}</h2><p>How far each {unit}'s plan moved from the plan before, over the {unit}s both cover: the units added, taken away or resized, summed over items. Fewer units moved means a steadier schedule for the shop and the suppliers. The first plan has nothing before it.</p><figure>{}</figure>", charts::roll::changes_by_week(run));
+    let _ = write!(out, "<section><h2>Plan changes by {unit}</h2><p>How far each {unit}'s plan moved from the plan before, over the {unit}s both cover: the units added, taken away or resized, summed over items. Fewer units moved means a steadier schedule for the shop and the suppliers. The first plan has nothing before it. Methods with the same figures draw over one another; the exact method is drawn on top.</p><figure>{}</figure>", charts::roll::changes_by_week(run));
     let rows: Vec<Vec<(String, bool)>> = run
         .results
         .iter()
@@ -506,10 +510,11 @@ pub(super) fn page(run: &RollRun) -> String {
         calendar.label(run.first),
         count(run.horizon, unit)
     )];
-    terms.push(format!(
-        "the first {} of each plan frozen (the previous plan's orders are kept there)",
-        count(run.frozen, unit)
-    ));
+    terms.push(match run.frozen {
+        0 => "nothing frozen".to_string(),
+        1 => format!("the first {unit} of each plan frozen (the previous plan's orders are kept there)"),
+        n => format!("the first {n} {unit}s of each plan frozen (the previous plan's orders are kept there)"),
+    });
     if run.change_cost > 0.0 {
         terms.push(format!(
             "a change cost of {} per order where the previous plan had none (exact+change-cost; the realised cost leaves it out)",
