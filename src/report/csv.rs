@@ -4,11 +4,11 @@
 //! stability.csv (one row per method) and weeks.csv (method x week).
 
 use super::clean;
+use super::table::RollRun;
 use crate::model::Scenario;
 use crate::multilevel::peg::pegs;
 use crate::report::notes::parent_orders_text;
 use crate::solve::Outcome;
-use super::table::RollRun;
 
 fn write_rows(rows: Vec<Vec<String>>) -> Vec<u8> {
     let mut writer = csv::Writer::from_writer(Vec::new());

@@ -23,7 +23,12 @@ fn is_exact(r: &RollResult) -> bool {
 /// pale on white).
 fn line_style(k: usize, exact: bool) -> String {
     const COLOURS: [&str; 7] = [BLUE, ORANGE, GREEN, VERMILION, PURPLE, SKY, BLACK];
-    const DASHES: [&str; 4] = ["", " stroke-dasharray=\"7 4\"", " stroke-dasharray=\"2 3\"", " stroke-dasharray=\"9 3 2 3\""];
+    const DASHES: [&str; 4] = [
+        "",
+        " stroke-dasharray=\"7 4\"",
+        " stroke-dasharray=\"2 3\"",
+        " stroke-dasharray=\"9 3 2 3\"",
+    ];
     let width = if exact { 2.8 } else { 1.8 };
     format!(
         "stroke=\"{}\" stroke-width=\"{width}\"{}",
@@ -243,11 +248,7 @@ pub fn changes_by_week(run: &RollRun) -> String {
             .map(|(w, v)| (x.map(*w as f64 + 0.5), y.map(*v)))
             .collect();
         svg.path(&path, &style);
-        let colour = style
-            .split('"')
-            .nth(1)
-            .unwrap_or(BLUE)
-            .to_string();
+        let colour = style.split('"').nth(1).unwrap_or(BLUE).to_string();
         for (w, v) in &points {
             let week = &r.weeks[*w];
             let share = week.stability.map_or(0.0, |s| s.share_changed());
@@ -284,8 +285,16 @@ pub fn statuses_by_week(run: &RollRun) -> String {
         ("feasible".to_string(), fill(SKY), false),
         ("infeasible".to_string(), fill(VERMILION), false),
         ("no plan found".to_string(), fill(GREY), false),
-        ("L: planned with units late".to_string(), "fill=\"#fff\" stroke=\"#333\"".to_string(), false),
-        ("foot bar: orders cut to fit the lines".to_string(), cut_style.clone(), false),
+        (
+            "L: planned with units late".to_string(),
+            "fill=\"#fff\" stroke=\"#333\"".to_string(),
+            false,
+        ),
+        (
+            "foot bar: orders cut to fit the lines".to_string(),
+            cut_style.clone(),
+            false,
+        ),
     ];
     let mut probe = Svg::new("", width, 10.0, "");
     let top = legends(&mut probe, &entries, left, width - right) + 18.0;
@@ -305,7 +314,11 @@ pub fn statuses_by_week(run: &RollRun) -> String {
     let gap = if band > 6.0 { 1.5 } else { 0.0 };
     for (k, r) in run.results.iter().enumerate() {
         let y = top + row_height * k as f64;
-        let emphasis = if is_exact(r) { "font-weight=\"600\"" } else { "" };
+        let emphasis = if is_exact(r) {
+            "font-weight=\"600\""
+        } else {
+            ""
+        };
         svg.text(left - 8.0, y + 16.0, &r.label, "end", emphasis);
         for (w, week) in r.weeks.iter().enumerate() {
             let mut tip = format!(

@@ -52,7 +52,12 @@ fn summary(run: &RollRun, cash: &Cash, out: &mut String) {
                 .filter(|r| cost(r) >= most - 0.005)
                 .map(|r| r.label.as_str())
                 .collect();
-            let _ = write!(lead, "; {} cost the most, {}", listed(&dearest), cash.of(most));
+            let _ = write!(
+                lead,
+                "; {} cost the most, {}",
+                listed(&dearest),
+                cash.of(most)
+            );
         }
         lead.push('.');
         sentences.push(lead);
@@ -276,7 +281,12 @@ fn realised_section(run: &RollRun, out: &mut String) {
                     text(r.label.clone()),
                     num(units(r.overload_planned().round())),
                     num(units(r.units_cut().round())),
-                    num(r.weeks.iter().filter(|w| !w.cuts.is_empty()).count().to_string()),
+                    num(r
+                        .weeks
+                        .iter()
+                        .filter(|w| !w.cuts.is_empty())
+                        .count()
+                        .to_string()),
                     num(percent(r.realised.fill_rate(), 1)),
                 ]
             })
@@ -285,7 +295,13 @@ fn realised_section(run: &RollRun, out: &mut String) {
         table(
             out,
             "",
-            &["method", "overload as planned", "units cut", &cut_weeks, "fill rate"],
+            &[
+                "method",
+                "overload as planned",
+                "units cut",
+                &cut_weeks,
+                "fill rate",
+            ],
             &rows,
         );
         let _ = write!(out, "<p class=\"small\">Overload as planned: capacity the orders needed beyond capacity and overtime in the {unit}s carried out, in the resources' own units. Units cut: what the shop could not make for it. weeks.csv lists both {unit} by {unit}.</p>");
@@ -512,8 +528,12 @@ pub(super) fn page(run: &RollRun) -> String {
     )];
     terms.push(match run.frozen {
         0 => "nothing frozen".to_string(),
-        1 => format!("the first {unit} of each plan frozen (the previous plan's orders are kept there)"),
-        n => format!("the first {n} {unit}s of each plan frozen (the previous plan's orders are kept there)"),
+        1 => format!(
+            "the first {unit} of each plan frozen (the previous plan's orders are kept there)"
+        ),
+        n => format!(
+            "the first {n} {unit}s of each plan frozen (the previous plan's orders are kept there)"
+        ),
     });
     if run.change_cost > 0.0 {
         terms.push(format!(
