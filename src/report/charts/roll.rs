@@ -13,7 +13,8 @@ use crate::solve::Status;
 const BLACK: &str = "#000000";
 const GREY: &str = "#8c8c8c";
 
-/// The exact method's runs are drawn first among equals (bold, blue).
+/// The exact method's runs are set apart: bold labels, solid lines drawn
+/// on top of the rules'.
 fn is_exact(r: &RollResult) -> bool {
     r.label == crate::solve::EXACT || r.label.starts_with("exact+")
 }
