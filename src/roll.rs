@@ -194,6 +194,18 @@ pub struct Week {
     pub overload: f64,
 }
 
+impl Week {
+    /// Units cut from the week's releases to fit the lines.
+    pub fn units_cut(&self) -> f64 {
+        self.cuts.iter().map(|c| c.quantity).sum()
+    }
+
+    /// Units the week's plan leaves late, over items and buckets.
+    pub fn units_late(&self) -> f64 {
+        self.late.iter().map(|l| l.quantity).sum()
+    }
+}
+
 /// The whole run of one method.
 #[derive(Debug, Clone)]
 pub struct RollResult {
@@ -226,11 +238,17 @@ impl RollResult {
 
     /// Units cut from the orders carried out, over the run.
     pub fn units_cut(&self) -> f64 {
-        self.weeks
+        self.weeks.iter().map(Week::units_cut).sum()
+    }
+
+    /// The most units short at the end of a bucket of the realised plan
+    /// (items without backlog; 0 when none is short).
+    pub fn most_short(&self) -> f64 {
+        self.realised
+            .shortages
             .iter()
-            .flat_map(|w| &w.cuts)
-            .map(|c| c.quantity)
-            .sum()
+            .map(|s| s.quantity)
+            .fold(0.0, f64::max)
     }
 
     /// Load planned beyond capacity plus overtime in the buckets carried

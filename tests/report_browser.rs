@@ -1,7 +1,8 @@
 //! report.html in a real browser: headless Chromium lays the page out,
 //! every chart (each `<svg data-chart>`) has a non-empty box, the page
 //! refers to nothing outside itself, the console stays silent, and a
-//! screenshot is saved as target/report-screenshot.png for people to see.
+//! screenshot is saved as target/report-screenshot.png for people to see
+//! (and the pages of `compare` and `roll` likewise).
 //!
 //! The report has no scripts. To read the chart boxes, the test writes a
 //! copy of the page with one inline script at the end of the body that
@@ -9,6 +10,7 @@
 //! must be installed (scripts/setup.sh does it); without it the test fails.
 
 mod report_fixture;
+mod roll_fixture;
 
 use std::path::{Path, PathBuf};
 use std::process::{Command, Output, Stdio};
@@ -282,4 +284,60 @@ fn a_bill_of_material_adds_the_stock_by_level_chart() {
     let names: Vec<&str> = boxes.iter().map(|b| b.0.as_str()).collect();
     assert!(names.contains(&"stock-by-level"), "{names:?}");
     assert_eq!(boxes.len(), 2 + scenario.items.len(), "{names:?}");
+}
+
+/// The page `roll --out` writes, from the real binary: the four-week demo
+/// (saved as target/roll-screenshot.png) and the invented run on a press,
+/// whose page also lists late units, cuts and safety stock
+/// (target/roll-press-screenshot.png). Each has its three charts.
+#[test]
+fn the_roll_page_lays_out_with_its_charts() {
+    let folder = tempfile::tempdir().unwrap();
+    let demo = Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("demo-data")
+        .join("harbor-bakeware-four-weeks");
+    let press = folder.path().join("tinware");
+    roll_fixture::write(&press);
+    let runs = [
+        (
+            demo.clone(),
+            vec![
+                "--history".to_string(),
+                demo.join("history").display().to_string(),
+                "--horizon".into(),
+                "3".into(),
+                "--frozen".into(),
+                "1".into(),
+            ],
+            "roll",
+            "roll-screenshot.png",
+        ),
+        (
+            press.clone(),
+            roll_fixture::terms(&press),
+            "roll-press",
+            "roll-press-screenshot.png",
+        ),
+    ];
+    for (dir, terms, name, shot) in runs {
+        let out = folder.path().join(name);
+        let status = Command::new(env!("CARGO_BIN_EXE_lotwright"))
+            .arg("roll")
+            .arg(&dir)
+            .args(&terms)
+            .arg("--out")
+            .arg(&out)
+            .stdout(Stdio::null())
+            .status()
+            .expect("the binary runs");
+        assert!(status.success(), "roll --out on {}", dir.display());
+        let page = std::fs::read_to_string(out.join("report.html")).expect("report.html");
+        let boxes = lay_out(&page, name, shot);
+        let names: Vec<&str> = boxes.iter().map(|b| b.0.as_str()).collect();
+        assert_eq!(
+            names,
+            ["realised-cost", "changes-by-week", "plan-status"],
+            "{name}"
+        );
+    }
 }

@@ -296,6 +296,13 @@ struct RollArgs {
     /// Print one JSON object on stdout instead of tables.
     #[arg(long)]
     json: bool,
+    /// Write the run's files into this folder (created whole, or not at
+    /// all): realised.csv, stability.csv, weeks.csv and report.html.
+    #[arg(long, value_name = "DIR")]
+    out: Option<PathBuf>,
+    /// Replace an existing output folder.
+    #[arg(long)]
+    force: bool,
     #[command(flatten)]
     freeze: Freeze,
     /// Seconds each week's MILP may run (default 5); a plan cut short is
@@ -643,6 +650,15 @@ fn roll_command(args: RollArgs) -> Result<i32> {
         )));
     }
     let history = lotwright::input::read_history(&args.history, &scenario)?;
+    // Check the output folder before the run, so a bad path fails early;
+    // neither the scenario nor the history folder may be written over.
+    let target = match &args.out {
+        Some(out) => {
+            output::Target::prepare(out, &args.history, args.force)?;
+            Some(output::Target::prepare(out, &args.dir, args.force)?)
+        }
+        None => None,
+    };
     let mut methods: Vec<String> = if args.methods.is_empty() {
         solve::METHOD_NAMES
             .iter()
@@ -707,6 +723,14 @@ fn roll_command(args: RollArgs) -> Result<i32> {
             )
         }),
     };
+    if let Some(target) = target {
+        target.write(&[
+            ("realised.csv", report::csv::roll_realised(&run)),
+            ("stability.csv", report::csv::roll_stability(&run)),
+            ("weeks.csv", report::csv::roll_weeks(&run)),
+            ("report.html", report::html::roll(&run).into_bytes()),
+        ])?;
+    }
     if args.json {
         emit_json(&report::json::roll(&run))?;
     } else {

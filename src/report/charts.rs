@@ -5,6 +5,8 @@
 //! The charts draw figures of the evaluation; they sum cost kinds only to
 //! place the stacked bars.
 
+pub mod roll;
+
 use super::figures;
 use super::svg::{grouped, step_decimals, ticks, Scale, Svg};
 use crate::model::Scenario;

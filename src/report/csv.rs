@@ -1,8 +1,10 @@
 //! CSV files written by `plan --out`: plan.csv (which `check` reads back as
 //! it is), comparison.csv, and the bucket tables records.csv (item x bucket)
-//! and load.csv (resource x bucket).
+//! and load.csv (resource x bucket); and by `roll --out`: realised.csv and
+//! stability.csv (one row per method) and weeks.csv (method x week).
 
 use super::clean;
+use super::table::RollRun;
 use crate::model::Scenario;
 use crate::multilevel::peg::pegs;
 use crate::report::notes::parent_orders_text;
@@ -208,6 +210,133 @@ pub fn load(scenario: &Scenario, outcome: &Outcome) -> Vec<u8> {
                 number(load.overtime_capacity[t]),
                 number(load.overtime[t]),
                 resource.unit.clone(),
+            ]);
+        }
+    }
+    write_rows(rows)
+}
+
+/// realised.csv: one row per method of a rolling run, the orders carried
+/// out priced against the demand that happened (the terminal's realised
+/// table): `cost` is setup + holding + backlog + overtime (unit cost apart,
+/// in `unit_cost`), `most_short` the most units short at the end of a
+/// bucket, `overload_planned` the load the orders as planned needed beyond
+/// capacity plus overtime, `units_cut` what the shop could not make for it,
+/// `weeks_late` the plans made with requirements left late.
+pub fn roll_realised(run: &RollRun) -> Vec<u8> {
+    let header = [
+        "method",
+        "cost",
+        "setup_cost",
+        "holding_cost",
+        "backlog_cost",
+        "overtime_cost",
+        "unit_cost",
+        "total_cost",
+        "setups",
+        "fill_rate",
+        "most_short",
+        "ending_stock_value",
+        "overload_planned",
+        "units_cut",
+        "weeks_late",
+    ];
+    let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
+    for r in run.results {
+        let e = &r.realised;
+        let c = &e.costs;
+        rows.push(vec![
+            r.label.clone(),
+            number(c.total() - c.unit),
+            number(c.setup),
+            number(c.holding),
+            number(c.backlog),
+            number(c.overtime),
+            number(c.unit),
+            number(e.total_cost()),
+            e.setups.to_string(),
+            number(e.fill_rate()),
+            number(r.most_short()),
+            number(e.ending_stock_value()),
+            number(r.overload_planned()),
+            number(r.units_cut()),
+            r.weeks_late().to_string(),
+        ]);
+    }
+    write_rows(rows)
+}
+
+/// stability.csv: one row per method, each plan against the one before
+/// over the buckets both cover, summed over the run: `orders_changed` the
+/// mean share of orders added, removed or resized, then the counts, the
+/// units moved and the earlier plans' units.
+pub fn roll_stability(run: &RollRun) -> Vec<u8> {
+    let header = [
+        "method",
+        "orders_changed",
+        "added",
+        "removed",
+        "resized",
+        "kept",
+        "units_moved",
+        "units_before",
+    ];
+    let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
+    for r in run.results {
+        let s = &r.stability;
+        rows.push(vec![
+            r.label.clone(),
+            number(r.mean_share_changed()),
+            s.added.to_string(),
+            s.removed.to_string(),
+            s.changed.to_string(),
+            s.unchanged.to_string(),
+            number(s.quantity_moved),
+            number(s.quantity_before),
+        ]);
+    }
+    write_rows(rows)
+}
+
+/// weeks.csv: one row per method and bucket of the run: the plan's
+/// status, cost and gap (empty unless feasible and not proven), its
+/// change against the plan before (empty in the first bucket), the load
+/// planned beyond capacity plus overtime, the units cut and the units
+/// left late.
+pub fn roll_weeks(run: &RollRun) -> Vec<u8> {
+    let header = [
+        "method",
+        "period",
+        "date",
+        "status",
+        "plan_cost",
+        "gap",
+        "share_changed",
+        "units_moved",
+        "overload",
+        "units_cut",
+        "units_late",
+    ];
+    let calendar = &run.scenario.calendar;
+    let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
+    for r in run.results {
+        for w in &r.weeks {
+            rows.push(vec![
+                r.label.clone(),
+                (w.bucket + 1).to_string(),
+                calendar.label(w.bucket),
+                w.status.name().to_string(),
+                number(w.plan_cost),
+                w.gap.map(number).unwrap_or_default(),
+                w.stability
+                    .map(|s| number(s.share_changed()))
+                    .unwrap_or_default(),
+                w.stability
+                    .map(|s| number(s.quantity_moved))
+                    .unwrap_or_default(),
+                number(w.overload),
+                number(w.units_cut()),
+                number(w.units_late()),
             ]);
         }
     }

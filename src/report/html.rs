@@ -1,4 +1,4 @@
-//! report.html written by `plan --out`: one self-contained page for a
+//! report.html written by `plan --out` (and, in `roll`, by `roll --out`): one self-contained page for a
 //! manager (no scripts, no fetches, a print stylesheet) with the summary and
 //! saving in words, charts as inline SVG (see `charts`), the comparison and
 //! the orders. All text is escaped: item ids are user input.
@@ -10,6 +10,7 @@ use super::{charts, figures, money, quantity};
 use crate::model::Scenario;
 use crate::solve::{cautions, Outcome};
 
+mod roll;
 mod sections;
 mod words;
 
@@ -199,6 +200,12 @@ pub fn plan(scenario: &Scenario, outcome: &Outcome) -> String {
     out.push_str("</section>");
     let _ = writeln!(out, "<footer>Made by lotwright {}. A plan is decision support: the people who know the plant decide.</footer></main></body></html>", env!("CARGO_PKG_VERSION"));
     out
+}
+
+/// The page of `roll --out`: realised cost and fill rate by method, plan
+/// changes by week, the weekly plans' status and safety stock.
+pub fn roll(run: &super::table::RollRun) -> String {
+    roll::page(run)
 }
 
 /// The page of `compare --out`: two plans side by side, their totals, the

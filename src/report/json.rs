@@ -535,6 +535,8 @@ pub fn roll(run: &super::table::RollRun) -> Value {
                             "quantity": clean(l.quantity),
                         })).collect::<Vec<_>>(),
                         "overload": clean(w.overload),
+                        "units_cut": clean(w.units_cut()),
+                        "units_late": clean(w.units_late()),
                         "cuts": w.cuts.iter().map(|c| json!({
                             "item": run.scenario.items[c.item].id,
                             "resource": run.scenario.resources[c.resource].id,
@@ -554,6 +556,7 @@ pub fn roll(run: &super::table::RollRun) -> Value {
                     "fill_rate": clean(e.fill_rate()),
                     "average_stock": clean(e.average_stock()),
                     "shortages": e.shortages.len(),
+                    "most_short": clean(r.most_short()),
                     "overload_planned": clean(r.overload_planned()),
                     "units_cut": clean(r.units_cut()),
                     "overloads": e.overloads.len(),

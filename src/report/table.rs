@@ -1042,7 +1042,7 @@ pub fn roll(run: &RollRun) -> String {
     ]);
     for r in run.results {
         let e = &r.realised;
-        let short: f64 = e.shortages.iter().map(|s| s.quantity).fold(0.0, f64::max);
+        let short = r.most_short();
         let c = &e.costs;
         grid.push(vec![
             r.label.clone(),
