@@ -391,11 +391,11 @@ fn emit(text: &str) -> Result<()> {
     }
 }
 
-/// Writes a JSON value to stdout as it is serialised (no copy of the whole
-/// text in memory); a closed pipe ends quietly.
-fn emit_json(value: &serde_json::Value) -> Result<()> {
+/// Writes JSON to stdout as it is serialised (no copy of the whole text in
+/// memory); a closed pipe ends quietly.
+fn emit_json(value: &impl serde::Serialize) -> Result<()> {
     let stdout = std::io::stdout().lock();
-    let mut writer = std::io::BufWriter::new(stdout);
+    let mut writer = std::io::BufWriter::with_capacity(1 << 16, stdout);
     let written = serde_json::to_writer_pretty(&mut writer, value)
         .map_err(std::io::Error::from)
         .and_then(|_| writer.write_all(b"\n"))
@@ -450,7 +450,7 @@ fn plan(args: PlanArgs) -> Result<i32> {
         ])?;
     }
     if args.json {
-        emit_json(&report::json::plan(&scenario, &outcome))?;
+        emit_json(&report::json::plan_document(&scenario, &outcome))?;
     } else {
         let detail = Detail {
             all: args.detail,
