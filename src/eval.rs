@@ -10,6 +10,8 @@ use serde::Serialize;
 
 pub use series::Series;
 
+use rayon::prelude::*;
+
 use crate::model::{Item, Plan, Scenario};
 
 /// Cost by kind. `total` is their sum.
@@ -368,6 +370,11 @@ impl Inputs {
     }
 }
 
+/// Items from which an evaluation is spread over threads: below it, handing
+/// the work out costs more than it saves (evaluations of small groups run
+/// thousands of times inside the heuristics).
+const PARALLEL_ITEMS: usize = 256;
+
 /// Evaluates `plan` against `scenario`.
 pub fn evaluate(scenario: &Scenario, plan: &Plan) -> Evaluation {
     evaluate_with(scenario, &Inputs::of(scenario), plan)
@@ -381,62 +388,52 @@ pub fn evaluate_with(scenario: &Scenario, inputs: &Inputs, plan: &Plan) -> Evalu
     let mut shortages = Vec::new();
     let mut violations = Vec::new();
     let mut costs = Costs::default();
-    // With a bill of material, parents come before their components, whose
-    // gross requirement is their own demand plus what the parents' releases
-    // (planned and firm) call for in the release bucket.
-    let order: Vec<usize> = if scenario.has_bom() {
-        scenario.level_order()
-    } else {
-        (0..scenario.items.len()).collect()
-    };
-    let mut slots: Vec<Option<ItemRecord>> = vec![None; scenario.items.len()];
-    for &i in &order {
-        let item = &scenario.items[i];
-        let receipts = &plan.receipts[i];
-        let mut dependent = vec![0.0; periods];
-        for line in scenario.bom.iter().filter(|line| line.component == i) {
-            let parent = slots[line.parent]
-                .as_ref()
-                .expect("a parent is evaluated before its components");
-            let releases = parent.planned_releases.iter().zip(&parent.firm_releases);
-            for (t, (&planned, &firm)) in releases.enumerate() {
-                if planned + firm > 0.0 {
-                    dependent[t] += scenario.issue(line, planned + firm);
-                }
-            }
-        }
-        let exploded;
-        let (item, gross) = if dependent.iter().any(|&q| q > 0.0) {
-            let mut with = item.clone();
-            for (d, q) in with.demand.iter_mut().zip(&dependent) {
-                *d += q;
-            }
-            exploded = with;
-            (&exploded, Series::from(&exploded.demand[..]))
-        } else {
-            (item, inputs.demand[i].clone())
-        };
-        let shared = Shared {
-            gross,
-            scheduled: inputs.receipts[i].clone(),
-            firm: inputs.firm[i].clone(),
-            zeros: &inputs.zeros,
-        };
-        let mut record = evaluate_item(
-            item,
-            receipts,
-            scenario.frozen,
-            shared,
+    let records = if scenario.has_bom() {
+        exploded_records(
+            scenario,
+            inputs,
+            plan,
+            &mut costs,
             &mut shortages,
             &mut violations,
-        );
-        if !Series::is_zero(&dependent) {
-            record.dependent_requirement = dependent.into();
+        )
+    } else {
+        // Items without a bill of material are independent: evaluated in
+        // parallel when there are many, then taken in item order, so that
+        // costs add up and faults are listed as one thread would.
+        let one = |(i, item): (usize, &Item)| {
+            let (mut short, mut broken) = (Vec::new(), Vec::new());
+            let shared = Shared {
+                gross: inputs.demand[i].clone(),
+                scheduled: inputs.receipts[i].clone(),
+                firm: inputs.firm[i].clone(),
+                zeros: &inputs.zeros,
+            };
+            let record = evaluate_item(
+                item,
+                &plan.receipts[i],
+                scenario.frozen,
+                shared,
+                &mut short,
+                &mut broken,
+            );
+            (record, short, broken)
+        };
+        let items = scenario.items.par_iter().enumerate();
+        let evaluated: Vec<_> = if scenario.items.len() >= PARALLEL_ITEMS {
+            items.map(one).collect()
+        } else {
+            scenario.items.iter().enumerate().map(one).collect()
+        };
+        let mut records = Vec::with_capacity(evaluated.len());
+        for (record, short, broken) in evaluated {
+            costs.add(&record.costs);
+            shortages.extend(short);
+            violations.extend(broken);
+            records.push(record);
         }
-        costs.add(&record.costs);
-        slots[i] = Some(record);
-    }
-    let records: Vec<ItemRecord> = slots.into_iter().flatten().collect();
+        records
+    };
     let mut resources: Vec<ResourceLoad> = scenario
         .resources
         .iter()
@@ -497,6 +494,69 @@ pub fn evaluate_with(scenario: &Scenario, inputs: &Inputs, plan: &Plan) -> Evalu
         feasible,
         setups,
     }
+}
+
+/// The records of a scenario with a bill of material: parents come before
+/// their components, whose gross requirement is their own demand plus what
+/// the parents' releases (planned and firm) call for in the release bucket.
+fn exploded_records(
+    scenario: &Scenario,
+    inputs: &Inputs,
+    plan: &Plan,
+    costs: &mut Costs,
+    shortages: &mut Vec<Shortage>,
+    violations: &mut Vec<Violation>,
+) -> Vec<ItemRecord> {
+    let periods = scenario.periods();
+    let order = scenario.level_order();
+    let mut slots: Vec<Option<ItemRecord>> = vec![None; scenario.items.len()];
+    for &i in &order {
+        let item = &scenario.items[i];
+        let receipts = &plan.receipts[i];
+        let mut dependent = vec![0.0; periods];
+        for line in scenario.bom.iter().filter(|line| line.component == i) {
+            let parent = slots[line.parent]
+                .as_ref()
+                .expect("a parent is evaluated before its components");
+            let releases = parent.planned_releases.iter().zip(&parent.firm_releases);
+            for (t, (&planned, &firm)) in releases.enumerate() {
+                if planned + firm > 0.0 {
+                    dependent[t] += scenario.issue(line, planned + firm);
+                }
+            }
+        }
+        let exploded;
+        let (item, gross) = if dependent.iter().any(|&q| q > 0.0) {
+            let mut with = item.clone();
+            for (d, q) in with.demand.iter_mut().zip(&dependent) {
+                *d += q;
+            }
+            exploded = with;
+            (&exploded, Series::from(&exploded.demand[..]))
+        } else {
+            (item, inputs.demand[i].clone())
+        };
+        let shared = Shared {
+            gross,
+            scheduled: inputs.receipts[i].clone(),
+            firm: inputs.firm[i].clone(),
+            zeros: &inputs.zeros,
+        };
+        let mut record = evaluate_item(
+            item,
+            receipts,
+            scenario.frozen,
+            shared,
+            shortages,
+            violations,
+        );
+        if !Series::is_zero(&dependent) {
+            record.dependent_requirement = dependent.into();
+        }
+        costs.add(&record.costs);
+        slots[i] = Some(record);
+    }
+    slots.into_iter().flatten().collect()
 }
 
 /// The rows of an item's record that come from the scenario as they are.

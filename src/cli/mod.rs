@@ -460,14 +460,21 @@ fn plan(args: PlanArgs) -> Result<i32> {
     }
     // Only the exact method can tell that the scenario has no feasible
     // plan; a rule's infeasible plan says nothing about the scenario.
-    if !outcome.chosen.is_exact() {
-        return Ok(0);
-    }
-    Ok(match outcome.chosen.status {
-        Status::Optimal | Status::Feasible => 0,
-        Status::Infeasible => 1,
-        Status::Unknown => 4,
-    })
+    let code = if !outcome.chosen.is_exact() {
+        0
+    } else {
+        match outcome.chosen.status {
+            Status::Optimal | Status::Feasible => 0,
+            Status::Infeasible => 1,
+            Status::Unknown => 4,
+        }
+    };
+    // The process ends next and the system takes its memory back whole;
+    // freeing the plans and records of many items one by one would only
+    // cost time (half a second at 100,000 items).
+    std::mem::forget(outcome);
+    std::mem::forget(scenario);
+    Ok(code)
 }
 
 fn check(args: CheckArgs) -> Result<i32> {

@@ -60,65 +60,124 @@ pub struct Order {
 /// The orders of a plan and the scenario's firm orders, by item then
 /// receipt bucket (a firm order first where both fall in one bucket).
 pub fn orders(scenario: &Scenario, plan: &Plan) -> Vec<Order> {
-    order_list(scenario, plan).collect()
+    let dates = Dates::of(scenario);
+    order_list(scenario, plan)
+        .map(|order| Order {
+            item: scenario.items[order.item].id.clone(),
+            period: order.bucket + 1,
+            date: dates.at(order.bucket as i64).into_owned(),
+            release_period: order.release + 1,
+            release_date: dates.at(order.release).into_owned(),
+            quantity: order.quantity,
+            kind: order.kind,
+            unit: scenario.items[order.item].unit.clone(),
+        })
+        .collect()
+}
+
+/// An order by the numbers: item index, receipt and release buckets.
+struct OrderAt {
+    item: usize,
+    bucket: usize,
+    /// The release bucket, negative before the horizon.
+    release: i64,
+    quantity: f64,
+    kind: &'static str,
 }
 
 /// `orders`, one at a time, as they are read off the plan.
-fn order_list<'a>(scenario: &'a Scenario, plan: &'a Plan) -> impl Iterator<Item = Order> + 'a {
-    let calendar = &scenario.calendar;
+fn order_list<'a>(scenario: &'a Scenario, plan: &'a Plan) -> impl Iterator<Item = OrderAt> + 'a {
     scenario
         .items
         .iter()
         .zip(&plan.receipts)
-        .flat_map(move |(item, row)| {
+        .enumerate()
+        .flat_map(move |(i, (item, row))| {
             row.iter().enumerate().flat_map(move |(t, &quantity)| {
                 [(item.firm[t], "firm"), (quantity, "planned")]
                     .into_iter()
                     .filter(|&(quantity, _)| quantity > 0.0)
-                    .map(move |(quantity, kind)| {
-                        let release = t as i64 - item.lead_time as i64;
-                        Order {
-                            item: item.id.clone(),
-                            period: t + 1,
-                            date: calendar.label(t),
-                            release_period: release + 1,
-                            release_date: calendar
-                                .signed_bucket_start(release)
-                                .format("%Y-%m-%d")
-                                .to_string(),
-                            quantity: clean(quantity),
-                            kind,
-                            unit: item.unit.clone(),
-                        }
+                    .map(move |(quantity, kind)| OrderAt {
+                        item: i,
+                        bucket: t,
+                        release: t as i64 - item.lead_time as i64,
+                        quantity: clean(quantity),
+                        kind,
                     })
             })
         })
 }
 
+/// The dates of the buckets orders fall in, written once rather than for
+/// every order: the horizon and, for releases before it, as far back as
+/// the longest lead time (at most a horizon's length; older ones are
+/// written when asked for).
+struct Dates<'a> {
+    calendar: &'a crate::model::Calendar,
+    first: i64,
+    texts: Vec<String>,
+}
+
+impl<'a> Dates<'a> {
+    fn of(scenario: &'a Scenario) -> Dates<'a> {
+        let periods = scenario.periods() as i64;
+        let lead = scenario
+            .items
+            .iter()
+            .map(|i| i.lead_time)
+            .max()
+            .unwrap_or(0);
+        let first = -(lead.min(scenario.periods()) as i64);
+        let calendar = &scenario.calendar;
+        Dates {
+            calendar,
+            first,
+            texts: (first..periods)
+                .map(|k| Dates::write(calendar, k))
+                .collect(),
+        }
+    }
+
+    fn write(calendar: &crate::model::Calendar, bucket: i64) -> String {
+        calendar
+            .signed_bucket_start(bucket)
+            .format("%Y-%m-%d")
+            .to_string()
+    }
+
+    /// The start date of a bucket (negative: before the horizon).
+    fn at(&self, bucket: i64) -> std::borrow::Cow<'_, str> {
+        match usize::try_from(bucket - self.first) {
+            Ok(k) if k < self.texts.len() => self.texts[k].as_str().into(),
+            _ => Dates::write(self.calendar, bucket).into(),
+        }
+    }
+}
+
 /// An order in the JSON: the keys in sorted order (see `plan`).
 #[derive(Serialize)]
-struct OrderJson {
-    date: String,
-    item: String,
+struct OrderJson<'a> {
+    date: std::borrow::Cow<'a, str>,
+    item: &'a str,
     kind: &'static str,
     period: usize,
     quantity: f64,
-    release_date: String,
+    release_date: std::borrow::Cow<'a, str>,
     release_period: i64,
-    unit: String,
+    unit: &'a str,
 }
 
-impl From<Order> for OrderJson {
-    fn from(order: Order) -> OrderJson {
+impl<'a> OrderJson<'a> {
+    fn new(scenario: &'a Scenario, dates: &'a Dates, order: OrderAt) -> OrderJson<'a> {
         OrderJson {
-            date: order.date,
-            item: order.item,
+            date: dates.at(order.bucket as i64),
+            item: &scenario.items[order.item].id,
             kind: order.kind,
-            period: order.period,
+            period: order.bucket + 1,
             quantity: order.quantity,
-            release_date: order.release_date,
-            release_period: order.release_period,
-            unit: order.unit,
+            release_date: dates.at(order.release),
+            release_period: order.release + 1,
+            unit: &scenario.items[order.item].unit,
         }
     }
 }

@@ -3,12 +3,13 @@
 //! declared in sorted order, the order a `serde_json::Value` prints them in,
 //! so both ways give the same text (a test below holds them to it).
 
+use rayon::prelude::*;
 use serde::{Serialize, Serializer};
 
 use serde_json::Value;
 
 use super::{
-    clean, faults, order_list, overtime_used, pegging, reason, Faults, OrderJson, PegJson,
+    clean, faults, order_list, overtime_used, pegging, reason, Dates, Faults, OrderJson, PegJson,
 };
 use crate::eval::{unavoidable_cost, Costs, Evaluation};
 use crate::model::{Plan, Scenario};
@@ -151,7 +152,9 @@ struct Orders<'a> {
 
 impl Serialize for Orders<'_> {
     fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
-        serializer.collect_seq(order_list(self.scenario, self.plan).map(OrderJson::from))
+        let dates = Dates::of(self.scenario);
+        let orders = order_list(self.scenario, self.plan);
+        serializer.collect_seq(orders.map(|order| OrderJson::new(self.scenario, &dates, order)))
     }
 }
 
@@ -249,9 +252,11 @@ pub fn plan_document<'a>(scenario: &'a Scenario, outcome: &'a Outcome) -> PlanDo
     PlanDocument {
         bucket: scenario.calendar.kind.name(),
         cautions: cautions(scenario, chosen),
+        // Each row sums over every item and bucket of its plan: the rows
+        // are figured side by side, in their order.
         comparison: outcome
             .comparison
-            .iter()
+            .par_iter()
             .map(|r| row(scenario, r, reference))
             .collect(),
         components: &chosen.components,
