@@ -1,11 +1,11 @@
 //! The JSON of `plan` as a document that serialises straight to a writer:
 //! no tree of values, no list of every order held in memory. Keys are
 //! declared in sorted order, the order a `serde_json::Value` prints them in,
-//! so both ways give the same text (a test below holds them to it).
+//! so both ways give the same text (tests/plan_json.rs and tests/pegging.rs
+//! hold them to it, and tests/plan_json.rs to every key of the contract).
 
 use rayon::prelude::*;
 use serde::{Serialize, Serializer};
-
 use serde_json::Value;
 
 use super::{
