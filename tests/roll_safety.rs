@@ -145,7 +145,12 @@ fn plan_sets_safety_stock_from_the_forecast_error_column() {
             .expect("runs")
     };
     let output = run(&["--service-level", "0.95"]);
-    assert_eq!(output.status.code(), Some(0), "{}", String::from_utf8_lossy(&output.stderr));
+    assert_eq!(
+        output.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&output.stderr)
+    );
     let value: serde_json::Value = serde_json::from_slice(&output.stdout).unwrap();
     let items = value["items"].as_array().unwrap();
     assert_eq!(items[0]["safety_stock"], 66.0);
