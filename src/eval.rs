@@ -4,7 +4,13 @@
 //! Every method's plan goes through `evaluate`, and only here are cost and
 //! feasibility computed, so that the methods can be compared on equal terms.
 
+mod series;
+
 use serde::Serialize;
+
+pub use series::Series;
+
+use rayon::prelude::*;
 
 use crate::model::{Item, Plan, Scenario};
 
@@ -42,24 +48,25 @@ impl Costs {
     }
 }
 
-/// The bucket-by-bucket record of one item.
+/// The bucket-by-bucket record of one item. Its rows are shared with the
+/// scenario's other evaluations where they hold the same figures.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ItemRecord {
     /// The item's own demand plus its dependent requirement.
-    pub gross_requirement: Vec<f64>,
+    pub gross_requirement: Series,
     /// What parents' releases call for (bill of material), by bucket;
     /// zero for an item that goes into no other.
-    pub dependent_requirement: Vec<f64>,
-    pub scheduled_receipts: Vec<f64>,
-    pub planned_receipts: Vec<f64>,
+    pub dependent_requirement: Series,
+    pub scheduled_receipts: Series,
+    pub planned_receipts: Series,
     /// Planned releases by release bucket (receipt bucket minus lead time).
-    pub planned_releases: Vec<f64>,
+    pub planned_releases: Series,
     /// Firm (pinned) orders by receipt bucket, and by release bucket.
-    pub firm_receipts: Vec<f64>,
-    pub firm_releases: Vec<f64>,
+    pub firm_receipts: Series,
+    pub firm_releases: Series,
     /// Projected on hand at the end of each bucket; negative is a shortage
     /// (or, for an item that allows it, backlog).
-    pub on_hand: Vec<f64>,
+    pub on_hand: Series,
     pub costs: Costs,
     /// Orders in the horizon, firm orders included.
     pub setups: usize,
@@ -333,59 +340,110 @@ pub fn unavoidable_cost(scenario: &Scenario) -> f64 {
     cost
 }
 
+/// The rows every evaluation of one scenario takes from its items (demand,
+/// scheduled receipts, firm orders), made once so that the evaluations of
+/// several plans share them instead of each holding a copy.
+pub struct Inputs {
+    demand: Vec<Series>,
+    receipts: Vec<Series>,
+    firm: Vec<Series>,
+    zeros: Series,
+}
+
+impl Inputs {
+    pub fn of(scenario: &Scenario) -> Inputs {
+        let zeros = Series::from(vec![0.0; scenario.periods()]);
+        let share = |values: &[f64]| {
+            if Series::is_zero(values) {
+                zeros.clone()
+            } else {
+                Series::from(values)
+            }
+        };
+        Inputs {
+            demand: scenario.items.iter().map(|i| share(&i.demand)).collect(),
+            receipts: scenario.items.iter().map(|i| share(&i.receipts)).collect(),
+            firm: scenario.items.iter().map(|i| share(&i.firm)).collect(),
+            zeros,
+        }
+    }
+
+    /// Whether these rows are those of `scenario`'s items.
+    fn fit(&self, scenario: &Scenario) -> bool {
+        self.demand.len() == scenario.items.len()
+            && self.zeros.len() == scenario.periods()
+            && scenario.items.iter().enumerate().all(|(i, item)| {
+                *self.demand[i] == *item.demand
+                    && *self.receipts[i] == *item.receipts
+                    && *self.firm[i] == *item.firm
+            })
+    }
+}
+
+/// Items from which an evaluation is spread over threads: below it, handing
+/// the work out costs more than it saves (evaluations of small groups run
+/// thousands of times inside the heuristics).
+const PARALLEL_ITEMS: usize = 256;
+
 /// Evaluates `plan` against `scenario`.
 pub fn evaluate(scenario: &Scenario, plan: &Plan) -> Evaluation {
+    evaluate_with(scenario, &Inputs::of(scenario), plan)
+}
+
+/// `evaluate`, with the scenario's rows made once beforehand
+/// (`Inputs::of(scenario)`) and shared by the evaluations of many plans.
+pub fn evaluate_with(scenario: &Scenario, inputs: &Inputs, plan: &Plan) -> Evaluation {
+    debug_assert!(inputs.fit(scenario), "inputs of another scenario");
     let periods = scenario.periods();
     let mut shortages = Vec::new();
     let mut violations = Vec::new();
     let mut costs = Costs::default();
-    // With a bill of material, parents come before their components, whose
-    // gross requirement is their own demand plus what the parents' releases
-    // (planned and firm) call for in the release bucket.
-    let order: Vec<usize> = if scenario.has_bom() {
-        scenario.level_order()
-    } else {
-        (0..scenario.items.len()).collect()
-    };
-    let mut slots: Vec<Option<ItemRecord>> = vec![None; scenario.items.len()];
-    for &i in &order {
-        let item = &scenario.items[i];
-        let receipts = &plan.receipts[i];
-        let mut dependent = vec![0.0; periods];
-        for line in scenario.bom.iter().filter(|line| line.component == i) {
-            let parent = slots[line.parent]
-                .as_ref()
-                .expect("a parent is evaluated before its components");
-            let releases = parent.planned_releases.iter().zip(&parent.firm_releases);
-            for (t, (&planned, &firm)) in releases.enumerate() {
-                if planned + firm > 0.0 {
-                    dependent[t] += scenario.issue(line, planned + firm);
-                }
-            }
-        }
-        let exploded;
-        let item = if dependent.iter().any(|&q| q > 0.0) {
-            let mut with = item.clone();
-            for (d, q) in with.demand.iter_mut().zip(&dependent) {
-                *d += q;
-            }
-            exploded = with;
-            &exploded
-        } else {
-            item
-        };
-        let mut record = evaluate_item(
-            item,
-            receipts,
-            scenario.frozen,
+    let records = if scenario.has_bom() {
+        exploded_records(
+            scenario,
+            inputs,
+            plan,
+            &mut costs,
             &mut shortages,
             &mut violations,
-        );
-        record.dependent_requirement = dependent;
-        costs.add(&record.costs);
-        slots[i] = Some(record);
-    }
-    let records: Vec<ItemRecord> = slots.into_iter().flatten().collect();
+        )
+    } else {
+        // Items without a bill of material are independent: evaluated in
+        // parallel when there are many, then taken in item order, so that
+        // costs add up and faults are listed as one thread would.
+        let one = |(i, item): (usize, &Item)| {
+            let (mut short, mut broken) = (Vec::new(), Vec::new());
+            let shared = Shared {
+                gross: inputs.demand[i].clone(),
+                scheduled: inputs.receipts[i].clone(),
+                firm: inputs.firm[i].clone(),
+                zeros: &inputs.zeros,
+            };
+            let record = evaluate_item(
+                item,
+                &plan.receipts[i],
+                scenario.frozen,
+                shared,
+                &mut short,
+                &mut broken,
+            );
+            (record, short, broken)
+        };
+        let items = scenario.items.par_iter().enumerate();
+        let evaluated: Vec<_> = if scenario.items.len() >= PARALLEL_ITEMS {
+            items.map(one).collect()
+        } else {
+            scenario.items.iter().enumerate().map(one).collect()
+        };
+        let mut records = Vec::with_capacity(evaluated.len());
+        for (record, short, broken) in evaluated {
+            costs.add(&record.costs);
+            shortages.extend(short);
+            violations.extend(broken);
+            records.push(record);
+        }
+        records
+    };
     let mut resources: Vec<ResourceLoad> = scenario
         .resources
         .iter()
@@ -448,10 +506,82 @@ pub fn evaluate(scenario: &Scenario, plan: &Plan) -> Evaluation {
     }
 }
 
+/// The records of a scenario with a bill of material: parents come before
+/// their components, whose gross requirement is their own demand plus what
+/// the parents' releases (planned and firm) call for in the release bucket.
+fn exploded_records(
+    scenario: &Scenario,
+    inputs: &Inputs,
+    plan: &Plan,
+    costs: &mut Costs,
+    shortages: &mut Vec<Shortage>,
+    violations: &mut Vec<Violation>,
+) -> Vec<ItemRecord> {
+    let periods = scenario.periods();
+    let order = scenario.level_order();
+    let mut slots: Vec<Option<ItemRecord>> = vec![None; scenario.items.len()];
+    for &i in &order {
+        let item = &scenario.items[i];
+        let receipts = &plan.receipts[i];
+        let mut dependent = vec![0.0; periods];
+        for line in scenario.bom.iter().filter(|line| line.component == i) {
+            let parent = slots[line.parent]
+                .as_ref()
+                .expect("a parent is evaluated before its components");
+            let releases = parent.planned_releases.iter().zip(&parent.firm_releases);
+            for (t, (&planned, &firm)) in releases.enumerate() {
+                if planned + firm > 0.0 {
+                    dependent[t] += scenario.issue(line, planned + firm);
+                }
+            }
+        }
+        let exploded;
+        let (item, gross) = if dependent.iter().any(|&q| q > 0.0) {
+            let mut with = item.clone();
+            for (d, q) in with.demand.iter_mut().zip(&dependent) {
+                *d += q;
+            }
+            exploded = with;
+            (&exploded, Series::from(&exploded.demand[..]))
+        } else {
+            (item, inputs.demand[i].clone())
+        };
+        let shared = Shared {
+            gross,
+            scheduled: inputs.receipts[i].clone(),
+            firm: inputs.firm[i].clone(),
+            zeros: &inputs.zeros,
+        };
+        let mut record = evaluate_item(
+            item,
+            receipts,
+            scenario.frozen,
+            shared,
+            shortages,
+            violations,
+        );
+        if !Series::is_zero(&dependent) {
+            record.dependent_requirement = dependent.into();
+        }
+        costs.add(&record.costs);
+        slots[i] = Some(record);
+    }
+    slots.into_iter().flatten().collect()
+}
+
+/// The rows of an item's record that come from the scenario as they are.
+struct Shared<'a> {
+    gross: Series,
+    scheduled: Series,
+    firm: Series,
+    zeros: &'a Series,
+}
+
 fn evaluate_item(
     item: &Item,
     receipts: &[f64],
     frozen: usize,
+    shared: Shared,
     shortages: &mut Vec<Shortage>,
     violations: &mut Vec<Violation>,
 ) -> ItemRecord {
@@ -603,18 +733,31 @@ fn evaluate_item(
     let ending_stock = on_hand.last().copied().unwrap_or(item.initial_stock);
     let ending_unit_cost = item.unit_cost.last().copied().unwrap_or(0.0);
     let longest_cover = longest_cover(item, receipts, tolerance);
+    let planned_receipts = Series::from(receipts);
+    // Without a lead time every order is released where it is received.
+    let plain = |q: f64| q > 0.0 || q.to_bits() == 0;
+    let planned_releases = if lead == 0 && receipts.iter().all(|&q| plain(q)) {
+        planned_receipts.clone()
+    } else {
+        releases.into()
+    };
+    let firm_releases = if Series::is_zero(&firm_releases) {
+        shared.zeros.clone()
+    } else {
+        firm_releases.into()
+    };
     ItemRecord {
-        dependent_requirement: vec![0.0; periods],
+        dependent_requirement: shared.zeros.clone(),
         longest_cover,
         allows_backlog: item.allows_backlog(),
         tolerance,
-        gross_requirement: item.demand.clone(),
-        scheduled_receipts: item.receipts.clone(),
-        planned_receipts: receipts.to_vec(),
-        planned_releases: releases,
-        firm_receipts: item.firm.clone(),
+        gross_requirement: shared.gross,
+        scheduled_receipts: shared.scheduled,
+        planned_receipts,
+        planned_releases,
+        firm_receipts: shared.firm,
         firm_releases,
-        on_hand,
+        on_hand: on_hand.into(),
         costs,
         setups,
         average_stock,

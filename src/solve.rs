@@ -9,7 +9,7 @@ use serde::Serialize;
 
 use crate::capacity::fix_optimize::{Found, Search};
 use crate::capacity::{self, milp::MilpOptions, GroupSolver};
-use crate::eval::{evaluate, Evaluation};
+use crate::eval::{evaluate, evaluate_with, Evaluation, Inputs};
 use crate::model::{Plan, Scenario};
 use crate::single::exact;
 use crate::single::rules::{self, Rule, Sizing};
@@ -222,15 +222,25 @@ pub fn plan_scenario_with(
             comparison.push(joint);
         }
         comparison.push(staged);
-    } else if wanted(EXACT) {
-        comparison.push(solve_exact_with(scenario, &options.milp, progress));
+    }
+    // The methods' evaluations share the scenario's rows (demand, receipts)
+    // instead of each holding a copy.
+    let plain = !scenario.has_bom() && !scenario.has_replanning();
+    let inputs = plain.then(|| Inputs::of(scenario));
+    if !scenario.has_bom() && wanted(EXACT) {
+        comparison.push(solve_exact_sharing(
+            scenario,
+            &options.milp,
+            progress,
+            inputs.as_ref(),
+        ));
     }
     for rule in Rule::ALL {
         if rule == Rule::FixedLot && !has_fixed_lot(scenario) {
             continue;
         }
         if wanted(rule.name()) {
-            comparison.push(run_rule(scenario, rule));
+            comparison.push(run_rule_sharing(scenario, rule, inputs.as_ref()));
         }
     }
     let chosen = comparison
@@ -276,6 +286,12 @@ fn has_fixed_lot(scenario: &Scenario) -> bool {
 
 /// The plan of one rule for every item.
 pub fn run_rule(scenario: &Scenario, rule: Rule) -> MethodResult {
+    run_rule_sharing(scenario, rule, None)
+}
+
+/// `run_rule`, evaluated on `inputs` (the scenario's own rows, made once)
+/// where given.
+fn run_rule_sharing(scenario: &Scenario, rule: Rule, inputs: Option<&Inputs>) -> MethodResult {
     if scenario.has_bom() {
         return bills::by_level(scenario, rule.name(), &|level| run_rule(level, rule));
     }
@@ -289,7 +305,7 @@ pub fn run_rule(scenario: &Scenario, rule: Rule) -> MethodResult {
         .map(|item| rules::plan(item, Sizing::Rule(rule)))
         .collect();
     let plan = Plan { receipts };
-    let evaluation = evaluate(scenario, &plan);
+    let evaluation = evaluate_shared(scenario, inputs, &plan);
     let mut notes = Vec::new();
     if rule == Rule::FixedLot {
         let without: Vec<&str> = scenario
@@ -333,6 +349,24 @@ pub fn solve_exact_with(
     scenario: &Scenario,
     options: &MilpOptions,
     progress: &dyn Progress,
+) -> MethodResult {
+    solve_exact_sharing(scenario, options, progress, None)
+}
+
+/// The evaluation of `plan`, on the scenario's rows made once where given.
+fn evaluate_shared(scenario: &Scenario, inputs: Option<&Inputs>, plan: &Plan) -> Evaluation {
+    match inputs {
+        Some(inputs) => evaluate_with(scenario, inputs, plan),
+        None => evaluate(scenario, plan),
+    }
+}
+
+/// `solve_exact_with`, evaluated on `inputs` where given.
+fn solve_exact_sharing(
+    scenario: &Scenario,
+    options: &MilpOptions,
+    progress: &dyn Progress,
+    inputs: Option<&Inputs>,
 ) -> MethodResult {
     if scenario.has_bom() {
         return bills::solve_exact(scenario, options, progress).0;
@@ -402,7 +436,7 @@ pub fn solve_exact_with(
             ));
         }
     }
-    let evaluation = evaluate(scenario, &plan);
+    let evaluation = evaluate_shared(scenario, inputs, &plan);
     let worst = |s: Status| components.iter().any(|c| c.status == s);
     let status = if worst(Status::Infeasible) {
         Status::Infeasible

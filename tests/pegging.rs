@@ -182,3 +182,37 @@ fn the_spreadsheet_carries_the_level_and_the_parent_orders() {
         Some("P period 3: 20; Q period 2: 5")
     );
 }
+
+/// The plan's JSON is written as it is serialised, without a tree of
+/// values; it must read exactly as the value would print (keys in sorted
+/// order), here with pegging and component shortages pegged to parents.
+#[test]
+fn plan_json_written_as_it_goes_equals_the_value() {
+    use lotwright::report::json;
+    // C now starts empty and takes a week to make, so P's release in week 1
+    // (for its demand in week 2) leaves C short there.
+    let short = common::scenario_dir(&[
+        ("scenario.toml", &common::weekly_toml(3)),
+        (
+            "items.csv",
+            "item,setup_cost,holding_cost,initial_stock,lead_time\n\
+             P,50,5,0,1\n\
+             Q,50,5,0,0\n\
+             C,50,1,0,1\n",
+        ),
+        ("demand.csv", "item,period,quantity\nP,2,10\nQ,2,5\nC,2,3\n"),
+        ("bom.csv", "parent,component,quantity_per\nP,C,2\nQ,C,1\n"),
+    ]);
+    for (dir, short_of_parts) in [(shared_component(), false), (short, true)] {
+        let scenario = lotwright::input::read_scenario(dir.path()).unwrap();
+        let options = lotwright::solve::Options::default();
+        let outcome = lotwright::solve::plan_scenario(&scenario, &options).unwrap();
+        let streamed =
+            serde_json::to_string_pretty(&json::plan_document(&scenario, &outcome)).unwrap();
+        let value = json::plan(&scenario, &outcome);
+        assert_eq!(streamed, serde_json::to_string_pretty(&value).unwrap());
+        assert!(!value["pegging"].as_array().unwrap().is_empty());
+        let pegged_shortage = value["shortages"][0]["parent_orders"][0]["parent"] == "P";
+        assert_eq!(pegged_shortage, short_of_parts);
+    }
+}

@@ -469,6 +469,29 @@ proptest! {
         }
     }
 
+    /// Planning a scenario evaluates every method on rows made once and
+    /// shared (demand, receipts, a plan's releases without lead time): the
+    /// figures equal those of a fresh evaluation of each plan, and the
+    /// demand row is one storage for every method.
+    #[test]
+    fn shared_evaluations_equal_fresh_ones(case in any_case()) {
+        let mut other = case.item();
+        other.id = "B".into();
+        other.lead_time = 0;
+        let scenario = scenario(vec![case.item(), other]);
+        let outcome = plan_scenario(&scenario, &Options::default()).unwrap();
+        let first = &outcome.comparison[0].evaluation;
+        for result in &outcome.comparison {
+            prop_assert_eq!(&result.evaluation, &evaluate(&scenario, &result.plan), "{}", result.method);
+            for (record, shared) in result.evaluation.items.iter().zip(&first.items) {
+                prop_assert!(record.gross_requirement.shares(&shared.gross_requirement));
+            }
+            let b = &result.evaluation.items[1];
+            let plain = result.plan.receipts[1].iter().all(|&q| q > 0.0 || q.to_bits() == 0);
+            prop_assert_eq!(b.planned_releases.shares(&b.planned_receipts), plain);
+        }
+    }
+
     /// (e) Every rule's plan meets min_lot, lot_multiple and max_lot when
     /// they are set, and never releases before bucket 1.
     #[test]

@@ -407,11 +407,11 @@ fn emit(text: &str) -> Result<()> {
     }
 }
 
-/// Writes a JSON value to stdout as it is serialised (no copy of the whole
-/// text in memory); a closed pipe ends quietly.
-fn emit_json(value: &serde_json::Value) -> Result<()> {
+/// Writes JSON to stdout as it is serialised (no copy of the whole text in
+/// memory); a closed pipe ends quietly.
+fn emit_json(value: &impl serde::Serialize) -> Result<()> {
     let stdout = std::io::stdout().lock();
-    let mut writer = std::io::BufWriter::new(stdout);
+    let mut writer = std::io::BufWriter::with_capacity(1 << 16, stdout);
     let written = serde_json::to_writer_pretty(&mut writer, value)
         .map_err(std::io::Error::from)
         .and_then(|_| writer.write_all(b"\n"))
@@ -466,7 +466,7 @@ fn plan(args: PlanArgs) -> Result<i32> {
         ])?;
     }
     if args.json {
-        emit_json(&report::json::plan(&scenario, &outcome))?;
+        emit_json(&report::json::plan_document(&scenario, &outcome))?;
     } else {
         let detail = Detail {
             all: args.detail,
@@ -476,14 +476,21 @@ fn plan(args: PlanArgs) -> Result<i32> {
     }
     // Only the exact method can tell that the scenario has no feasible
     // plan; a rule's infeasible plan says nothing about the scenario.
-    if !outcome.chosen.is_exact() {
-        return Ok(0);
-    }
-    Ok(match outcome.chosen.status {
-        Status::Optimal | Status::Feasible => 0,
-        Status::Infeasible => 1,
-        Status::Unknown => 4,
-    })
+    let code = if !outcome.chosen.is_exact() {
+        0
+    } else {
+        match outcome.chosen.status {
+            Status::Optimal | Status::Feasible => 0,
+            Status::Infeasible => 1,
+            Status::Unknown => 4,
+        }
+    };
+    // The process ends next and the system takes its memory back whole;
+    // freeing the plans and records of many items one by one would only
+    // cost time (half a second at 100,000 items).
+    std::mem::forget(outcome);
+    std::mem::forget(scenario);
+    Ok(code)
 }
 
 fn check(args: CheckArgs) -> Result<i32> {

@@ -2,7 +2,6 @@
 //! byte-order mark and CRLF tolerance, a clear word on semicolons, and cell
 //! parsing that reports file, line and column.
 
-use std::collections::HashMap;
 use std::path::{Path, PathBuf};
 
 use crate::error::{Error, Location, Result};
@@ -13,28 +12,39 @@ pub struct Schema {
     pub required: &'static [&'static str],
 }
 
-/// One data row: its 1-based line number and trimmed cells (kept in one
-/// buffer per row, so large files cost one allocation a row, not a cell).
+/// One data row: its 1-based line number and where its trimmed cells lie
+/// in the file's one buffer (so a large file costs no allocation a row).
 pub struct Record {
     pub line: u64,
-    cells: csv::StringRecord,
+    /// Index of its first cell in `CsvFile::bounds`, and how many cells.
+    first: usize,
+    cells: usize,
 }
 
 /// A CSV file read whole and checked against its schema.
 pub struct CsvFile {
     pub path: PathBuf,
     columns: Vec<String>,
-    index: HashMap<String, usize>,
     pub records: Vec<Record>,
+    /// Every trimmed cell of the file, one after the other.
+    text: String,
+    /// Cell `k` of the file is `text[bounds[k]..bounds[k + 1]]`.
+    bounds: Vec<usize>,
 }
 
-/// A cell with its place, ready to be parsed.
 /// The longest unit of measure accepted (it heads table columns).
 pub const MAX_UNIT_CHARS: usize = 24;
 
+/// A cell with its place, ready to be parsed. The place is written out
+/// only for an error, so that reading millions of good cells costs no
+/// copies of the file's path and the column's name.
 pub struct Cell<'a> {
     pub text: &'a str,
-    location: Location,
+    path: &'a Path,
+    line: u64,
+    /// 1-based column number and name.
+    column: usize,
+    name: &'a str,
 }
 
 impl CsvFile {
@@ -63,31 +73,55 @@ impl CsvFile {
 
     /// Parses the bytes of a file (exposed for tests and for plan files).
     pub fn parse(path: &Path, bytes: &[u8], schema: &Schema) -> Result<CsvFile> {
-        let text = decode(path, bytes)?;
+        let source = decode(path, bytes)?;
         let mut reader = csv::ReaderBuilder::new()
             .has_headers(false)
             .flexible(true)
-            .trim(csv::Trim::All)
-            .from_reader(text.as_bytes());
-        let mut raw = Vec::new();
-        for result in reader.records() {
-            let record = result.map_err(|e| {
+            .from_reader(source.as_bytes());
+        let mut text = String::new();
+        let mut bounds = vec![0];
+        let mut rows = Vec::new();
+        let mut row = csv::ByteRecord::new();
+        loop {
+            let more = reader.read_byte_record(&mut row).map_err(|e| {
                 let line = e.position().map(|p| p.line()).unwrap_or(0);
                 Error::input(
                     Location::line(path, line),
                     format!("cannot read this CSV row: {e}"),
                 )
             })?;
-            let line = record.position().map(|p| p.line()).unwrap_or(0);
-            if record.iter().all(|c| c.is_empty()) {
-                continue; // blank lines are harmless
+            if !more {
+                break;
             }
-            raw.push(Record {
+            let line = row.position().map(|p| p.line()).unwrap_or(0);
+            let first = bounds.len() - 1;
+            for field in &row {
+                // The source is UTF-8 and cells end at ASCII commas, so
+                // every cell is UTF-8 too.
+                let cell = std::str::from_utf8(field).map_err(|_| {
+                    Error::input(Location::line(path, line), "the row is not valid UTF-8")
+                })?;
+                text.push_str(cell.trim());
+                bounds.push(text.len());
+            }
+            if bounds[first] == text.len() {
+                bounds.truncate(first + 1); // blank lines are harmless
+                continue;
+            }
+            rows.push(Record {
                 line,
-                cells: record,
+                first,
+                cells: row.len(),
             });
         }
-        let mut rows = raw.into_iter();
+        let mut file = CsvFile {
+            path: path.to_path_buf(),
+            columns: Vec::new(),
+            records: Vec::new(),
+            text,
+            bounds,
+        };
+        let mut rows = rows.into_iter();
         let header = rows.next().ok_or_else(|| {
             Error::input(
                 Location::file(path),
@@ -97,16 +131,12 @@ impl CsvFile {
                 ),
             )
         })?;
-        let columns = check_header(path, &header, schema)?;
-        let index = columns
-            .iter()
-            .enumerate()
-            .map(|(i, c)| (c.clone(), i))
-            .collect();
-        let records: Vec<Record> = rows.collect();
-        for record in &records {
-            if record.cells.len() != columns.len() {
-                let what = if record.cells.len() < columns.len() {
+        let names: Vec<String> = file.cells(&header).map(str::to_string).collect();
+        file.columns = check_header(path, header.line, names, schema)?;
+        file.records = rows.collect();
+        for record in &file.records {
+            if record.cells != file.columns.len() {
+                let what = if record.cells < file.columns.len() {
                     "too few"
                 } else {
                     "too many"
@@ -115,42 +145,57 @@ impl CsvFile {
                     Location::line(path, record.line),
                     format!(
                         "this row has {} cells but the header has {} columns ({what} cells)",
-                        record.cells.len(),
-                        columns.len()
+                        record.cells,
+                        file.columns.len()
                     ),
                 ));
             }
         }
-        Ok(CsvFile {
-            path: path.to_path_buf(),
-            columns,
-            index,
-            records,
-        })
+        Ok(file)
+    }
+
+    /// The trimmed cells of a row, in order.
+    fn cells<'a>(&'a self, record: &Record) -> impl Iterator<Item = &'a str> + 'a {
+        let range = record.first..record.first + record.cells;
+        range.map(|k| &self.text[self.bounds[k]..self.bounds[k + 1]])
+    }
+
+    /// The column called `name`. A file has a handful of columns, so a
+    /// look along them is quicker than hashing the name for every cell.
+    fn column(&self, name: &str) -> Option<usize> {
+        self.columns.iter().position(|c| c == name)
     }
 
     pub fn has_column(&self, name: &str) -> bool {
-        self.index.contains_key(name)
+        self.column(name).is_some()
     }
 
     /// The cell of `record` in column `name`; `None` when the column is absent
     /// or the cell is empty (empty cells take the default).
     pub fn cell<'a>(&'a self, record: &'a Record, name: &str) -> Option<Cell<'a>> {
-        let &column = self.index.get(name)?;
-        let text = record.cells.get(column).unwrap_or("");
+        let column = self.column(name)?;
+        let k = record.first + column;
+        let text = if column < record.cells {
+            &self.text[self.bounds[k]..self.bounds[k + 1]]
+        } else {
+            ""
+        };
         if text.is_empty() {
             return None;
         }
         Some(Cell {
             text,
-            location: Location::cell(&self.path, record.line, column + 1, &self.columns[column]),
+            path: &self.path,
+            line: record.line,
+            column: column + 1,
+            name: &self.columns[column],
         })
     }
 
     /// The cell of a required column, or an error saying it is empty.
     pub fn required<'a>(&'a self, record: &'a Record, name: &str) -> Result<Cell<'a>> {
         self.cell(record, name).ok_or_else(|| {
-            let column = self.index.get(name).copied().unwrap_or(0);
+            let column = self.column(name).unwrap_or(0);
             Error::input(
                 Location::cell(&self.path, record.line, column + 1, name),
                 format!("the {name} cell is empty; it needs a value"),
@@ -166,11 +211,11 @@ impl CsvFile {
 
 impl<'a> Cell<'a> {
     pub fn location(&self) -> Location {
-        self.location.clone()
+        Location::cell(self.path, self.line, self.column, self.name)
     }
 
     pub fn error(&self, message: impl Into<String>) -> Error {
-        Error::input(self.location.clone(), message)
+        Error::input(self.location(), message)
     }
 
     /// A finite decimal number, with a helpful word for the usual mistakes.
@@ -191,7 +236,6 @@ impl<'a> Cell<'a> {
         }
     }
 
-    /// A number that is zero or more.
     /// A unit of measure (kegs, cartons, kg, hours): it names what is
     /// counted, so it starts with a letter (a number here is a value in the
     /// wrong column), holds no control characters and stays short enough
@@ -216,6 +260,7 @@ impl<'a> Cell<'a> {
         Ok(text.to_string())
     }
 
+    /// A number that is zero or more.
     pub fn non_negative(&self) -> Result<f64> {
         let value = self.number()?;
         if value < 0.0 {
@@ -283,10 +328,10 @@ fn not_a_number(text: &str) -> String {
     }
 }
 
-fn decode(path: &Path, bytes: &[u8]) -> Result<String> {
+fn decode<'a>(path: &Path, bytes: &'a [u8]) -> Result<&'a str> {
     let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
     match std::str::from_utf8(bytes) {
-        Ok(text) => Ok(text.to_string()),
+        Ok(text) => Ok(text),
         Err(e) => {
             let good = &bytes[..e.valid_up_to()];
             let line = good.iter().filter(|&&b| b == b'\n').count() as u64 + 1;
@@ -303,22 +348,26 @@ fn decode(path: &Path, bytes: &[u8]) -> Result<String> {
     }
 }
 
-fn check_header(path: &Path, header: &Record, schema: &Schema) -> Result<Vec<String>> {
-    let columns: Vec<String> = header.cells.iter().map(str::to_string).collect();
+fn check_header(
+    path: &Path,
+    line: u64,
+    columns: Vec<String>,
+    schema: &Schema,
+) -> Result<Vec<String>> {
     if columns.len() == 1 && columns[0].contains(';') {
         return Err(Error::input(
-            Location::line(path, header.line),
+            Location::line(path, line),
             "the file looks semicolon-delimited; lotwright reads comma-separated files: export with commas as the delimiter",
         ));
     }
     if columns.len() == 1 && columns[0].contains('\t') {
         return Err(Error::input(
-            Location::line(path, header.line),
+            Location::line(path, line),
             "the file looks tab-delimited; lotwright reads comma-separated files: export with commas as the delimiter",
         ));
     }
     for (i, name) in columns.iter().enumerate() {
-        let location = Location::cell(path, header.line, i + 1, name);
+        let location = Location::cell(path, line, i + 1, name);
         if name.is_empty() {
             return Err(Error::input(
                 location,
@@ -351,7 +400,7 @@ fn check_header(path: &Path, header: &Record, schema: &Schema) -> Result<Vec<Str
     for required in schema.required {
         if !columns.iter().any(|c| c == required) {
             return Err(Error::input(
-                Location::line(path, header.line),
+                Location::line(path, line),
                 format!("the required column {required} is missing from the header"),
             ));
         }
@@ -404,6 +453,28 @@ mod tests {
         assert_eq!(file.records.len(), 1);
         let cell = file.cell(&file.records[0], "setup_cost").unwrap();
         assert_eq!(cell.number().unwrap(), 10.0);
+    }
+
+    #[test]
+    fn cells_are_trimmed_and_blank_rows_skipped() {
+        let text = "item,setup_cost\n  A , 10 \n , \n\"B \",\u{a0}5\u{a0}\nC\n";
+        let file = parse(text.as_bytes());
+        let err = file.err().unwrap().to_string();
+        assert!(err.contains("line 5") && err.contains("too few"), "{err}");
+        let file = parse(&text.as_bytes()[..text.len() - 2]).unwrap();
+        let rows: Vec<(u64, &str, f64)> = file
+            .records
+            .iter()
+            .map(|r| {
+                let id = file.cell(r, "item").unwrap().text;
+                (
+                    r.line,
+                    id,
+                    file.cell(r, "setup_cost").unwrap().number().unwrap(),
+                )
+            })
+            .collect();
+        assert_eq!(rows, vec![(2, "A", 10.0), (4, "B", 5.0)]);
     }
 
     #[test]

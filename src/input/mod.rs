@@ -374,8 +374,16 @@ fn read_quantities(
         return Ok(());
     };
     needs_bucket_column(&file, name)?;
+    // Rows of one item usually come together: the id found last is tried
+    // before the index.
+    let mut last: Option<(&str, usize)> = None;
     for record in &file.records {
-        let item = item_of(&file, record, index)?;
+        let id = file.required(record, "item")?.text;
+        let item = match last {
+            Some((last_id, item)) if last_id == id => item,
+            _ => item_of(&file, record, index)?,
+        };
+        last = Some((id, item));
         let t = bucket_of(&file, record, calendar)?;
         let quantity = file.required(record, "quantity")?.non_negative()?;
         add(item, t, quantity);

@@ -6,10 +6,14 @@ use serde_json::{json, Value};
 
 use super::clean;
 use crate::check::CheckReport;
-use crate::eval::{Costs, Evaluation};
+use crate::eval::{Costs, Evaluation, ViolationKind};
 use crate::model::{Plan, Scenario};
 use crate::multilevel::peg::{pegs, shortage_causes, Peg};
-use crate::solve::{cautions, MethodResult, Outcome};
+use crate::solve::{cautions, Outcome};
+
+mod plan;
+
+pub use plan::{plan_document, PlanDocument};
 
 /// The unit of every item and resource, by id.
 fn units(scenario: &Scenario) -> Value {
@@ -26,37 +30,6 @@ fn units(scenario: &Scenario) -> Value {
     json!({ "items": items, "resources": resources })
 }
 
-/// Adds the unit of the named item (key `item`) or resource (key
-/// `resource`) to each entry of a list of faults.
-fn add_units(scenario: &Scenario, list: &mut Value) {
-    let Value::Array(entries) = list else {
-        return;
-    };
-    for entry in entries {
-        let Value::Object(map) = entry else {
-            continue;
-        };
-        let unit = if let Some(id) = map.get("item").and_then(Value::as_str) {
-            scenario
-                .items
-                .iter()
-                .find(|i| i.id == id)
-                .map(|i| i.unit.clone())
-        } else if let Some(id) = map.get("resource").and_then(Value::as_str) {
-            scenario
-                .resources
-                .iter()
-                .find(|r| r.id == id)
-                .map(|r| r.unit.clone())
-        } else {
-            None
-        };
-        if let Some(unit) = unit {
-            map.insert("unit".into(), json!(unit));
-        }
-    }
-}
-
 /// Overtime used, summed over resources: a count only when they share a
 /// unit (or there are none), else `null` (the overtime cost stands).
 fn overtime_used(scenario: &Scenario, evaluation: &Evaluation) -> Option<f64> {
@@ -65,19 +38,7 @@ fn overtime_used(scenario: &Scenario, evaluation: &Evaluation) -> Option<f64> {
 }
 
 fn costs(costs: &Costs) -> Value {
-    let mut value = json!({
-        "setup": clean(costs.setup),
-        "holding": clean(costs.holding),
-        "unit": clean(costs.unit),
-        "backlog": clean(costs.backlog),
-        "overtime": clean(costs.overtime),
-        "total": clean(costs.total()),
-    });
-    // Only a rolling plan's window prices units moved from an earlier plan.
-    if costs.change != 0.0 {
-        value["change"] = json!(clean(costs.change));
-    }
-    value
+    serde_json::to_value(plan::CostsJson::from(costs)).unwrap_or(Value::Null)
 }
 
 /// One order of a plan as the outputs list it.
@@ -99,92 +60,319 @@ pub struct Order {
 /// The orders of a plan and the scenario's firm orders, by item then
 /// receipt bucket (a firm order first where both fall in one bucket).
 pub fn orders(scenario: &Scenario, plan: &Plan) -> Vec<Order> {
-    let calendar = &scenario.calendar;
-    let mut orders = Vec::new();
-    for (item, row) in scenario.items.iter().zip(&plan.receipts) {
-        for (t, &quantity) in row.iter().enumerate() {
-            for (quantity, kind) in [(item.firm[t], "firm"), (quantity, "planned")] {
-                if quantity > 0.0 {
-                    let release = t as i64 - item.lead_time as i64;
-                    orders.push(Order {
-                        item: item.id.clone(),
-                        period: t + 1,
-                        date: calendar.label(t),
-                        release_period: release + 1,
-                        release_date: calendar
-                            .signed_bucket_start(release)
-                            .format("%Y-%m-%d")
-                            .to_string(),
+    let dates = Dates::of(scenario);
+    order_list(scenario, plan)
+        .map(|order| Order {
+            item: scenario.items[order.item].id.clone(),
+            period: order.bucket + 1,
+            date: dates.at(order.bucket as i64).into_owned(),
+            release_period: order.release + 1,
+            release_date: dates.at(order.release).into_owned(),
+            quantity: order.quantity,
+            kind: order.kind,
+            unit: scenario.items[order.item].unit.clone(),
+        })
+        .collect()
+}
+
+/// An order by the numbers: item index, receipt and release buckets.
+struct OrderAt {
+    item: usize,
+    bucket: usize,
+    /// The release bucket, negative before the horizon.
+    release: i64,
+    quantity: f64,
+    kind: &'static str,
+}
+
+/// `orders`, one at a time, as they are read off the plan.
+fn order_list<'a>(scenario: &'a Scenario, plan: &'a Plan) -> impl Iterator<Item = OrderAt> + 'a {
+    scenario
+        .items
+        .iter()
+        .zip(&plan.receipts)
+        .enumerate()
+        .flat_map(move |(i, (item, row))| {
+            row.iter().enumerate().flat_map(move |(t, &quantity)| {
+                [(item.firm[t], "firm"), (quantity, "planned")]
+                    .into_iter()
+                    .filter(|&(quantity, _)| quantity > 0.0)
+                    .map(move |(quantity, kind)| OrderAt {
+                        item: i,
+                        bucket: t,
+                        release: t as i64 - item.lead_time as i64,
                         quantity: clean(quantity),
                         kind,
-                        unit: item.unit.clone(),
-                    });
-                }
-            }
+                    })
+            })
+        })
+}
+
+/// The dates of the buckets orders fall in, written once rather than for
+/// every order: the horizon and, for releases before it, as far back as
+/// the longest lead time (at most a horizon's length; older ones are
+/// written when asked for).
+struct Dates<'a> {
+    calendar: &'a crate::model::Calendar,
+    first: i64,
+    texts: Vec<String>,
+}
+
+impl<'a> Dates<'a> {
+    fn of(scenario: &'a Scenario) -> Dates<'a> {
+        let periods = scenario.periods() as i64;
+        let lead = scenario
+            .items
+            .iter()
+            .map(|i| i.lead_time)
+            .max()
+            .unwrap_or(0);
+        let first = -(lead.min(scenario.periods()) as i64);
+        let calendar = &scenario.calendar;
+        Dates {
+            calendar,
+            first,
+            texts: (first..periods)
+                .map(|k| Dates::write(calendar, k))
+                .collect(),
         }
     }
-    orders
+
+    fn write(calendar: &crate::model::Calendar, bucket: i64) -> String {
+        calendar
+            .signed_bucket_start(bucket)
+            .format("%Y-%m-%d")
+            .to_string()
+    }
+
+    /// The start date of a bucket (negative: before the horizon).
+    fn at(&self, bucket: i64) -> std::borrow::Cow<'_, str> {
+        match usize::try_from(bucket - self.first) {
+            Ok(k) if k < self.texts.len() => self.texts[k].as_str().into(),
+            _ => Dates::write(self.calendar, bucket).into(),
+        }
+    }
+}
+
+/// An order in the JSON: the keys in sorted order (see `plan`).
+#[derive(Serialize)]
+struct OrderJson<'a> {
+    date: std::borrow::Cow<'a, str>,
+    item: &'a str,
+    kind: &'static str,
+    period: usize,
+    quantity: f64,
+    release_date: std::borrow::Cow<'a, str>,
+    release_period: i64,
+    unit: &'a str,
+}
+
+impl<'a> OrderJson<'a> {
+    fn new(scenario: &'a Scenario, dates: &'a Dates, order: OrderAt) -> OrderJson<'a> {
+        OrderJson {
+            date: dates.at(order.bucket as i64),
+            item: &scenario.items[order.item].id,
+            kind: order.kind,
+            period: order.bucket + 1,
+            quantity: order.quantity,
+            release_date: dates.at(order.release),
+            release_period: order.release + 1,
+            unit: &scenario.items[order.item].unit,
+        }
+    }
+}
+
+/// One entry of `pegging`: a parent order's call on a component.
+#[derive(Serialize)]
+struct PegJson<'a> {
+    component: &'a str,
+    date: String,
+    parent: &'a str,
+    parent_kind: &'static str,
+    parent_period: usize,
+    parent_quantity: f64,
+    period: usize,
+    quantity: f64,
 }
 
 /// Which parent orders make up each component requirement (empty without
 /// a bill of material).
-fn pegging(scenario: &Scenario, pegs: &[Peg]) -> Value {
+fn pegging<'a>(scenario: &'a Scenario, pegs: &[Peg]) -> Vec<PegJson<'a>> {
     let calendar = &scenario.calendar;
-    let list: Vec<Value> = pegs
-        .iter()
-        .map(|p| {
-            json!({
-                "component": scenario.items[p.component].id,
-                "period": p.bucket + 1,
-                "date": calendar.label(p.bucket),
-                "quantity": clean(p.quantity),
-                "parent": scenario.items[p.parent].id,
-                "parent_period": p.parent_receipt + 1,
-                "parent_quantity": clean(p.parent_quantity),
-                "parent_kind": if p.firm { "firm" } else { "planned" },
-            })
+    pegs.iter()
+        .map(|p| PegJson {
+            component: &scenario.items[p.component].id,
+            date: calendar.label(p.bucket),
+            parent: &scenario.items[p.parent].id,
+            parent_kind: if p.firm { "firm" } else { "planned" },
+            parent_period: p.parent_receipt + 1,
+            parent_quantity: clean(p.parent_quantity),
+            period: p.bucket + 1,
+            quantity: clean(p.quantity),
         })
-        .collect();
-    Value::Array(list)
+        .collect()
+}
+
+/// A parent order that a component's shortage leaves without parts.
+#[derive(Serialize)]
+struct ParentOrderJson<'a> {
+    parent: &'a str,
+    parent_period: usize,
+    parent_quantity: f64,
+    short: f64,
+}
+
+#[derive(Serialize)]
+struct ShortageJson<'a> {
+    item: &'a str,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    own_demand: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    parent_orders: Option<Vec<ParentOrderJson<'a>>>,
+    period: usize,
+    quantity: f64,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    unit: Option<&'a str>,
+}
+
+#[derive(Serialize)]
+struct OverloadJson<'a> {
+    capacity: f64,
+    excess: f64,
+    load: f64,
+    period: usize,
+    resource: &'a str,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    unit: Option<&'a str>,
+}
+
+#[derive(Serialize)]
+struct ViolationJson<'a> {
+    binding: bool,
+    item: &'a str,
+    kind: ViolationKind,
+    limit: f64,
+    period: usize,
+    quantity: f64,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    unit: Option<&'a str>,
+}
+
+/// The unit of an item or a resource by its id, found by a table built
+/// only when there are faults to name.
+struct UnitOf<'a> {
+    items: std::collections::HashMap<&'a str, &'a str>,
+    resources: std::collections::HashMap<&'a str, &'a str>,
+}
+
+impl<'a> UnitOf<'a> {
+    fn new(scenario: &'a Scenario, evaluation: &Evaluation) -> UnitOf<'a> {
+        let items = if evaluation.shortages.is_empty() && evaluation.violations.is_empty() {
+            Default::default()
+        } else {
+            let units = scenario
+                .items
+                .iter()
+                .map(|i| (i.id.as_str(), i.unit.as_str()));
+            units.collect()
+        };
+        let resources = if evaluation.overloads.is_empty() {
+            Default::default()
+        } else {
+            let units = scenario
+                .resources
+                .iter()
+                .map(|r| (r.id.as_str(), r.unit.as_str()));
+            units.collect()
+        };
+        UnitOf { items, resources }
+    }
+
+    fn item(&self, id: &str) -> Option<&'a str> {
+        self.items.get(id).copied()
+    }
+
+    fn resource(&self, id: &str) -> Option<&'a str> {
+        self.resources.get(id).copied()
+    }
+}
+
+/// Shortages, overloads and violations of one evaluation.
+struct Faults<'a> {
+    shortages: Vec<ShortageJson<'a>>,
+    overloads: Vec<OverloadJson<'a>>,
+    violations: Vec<ViolationJson<'a>>,
 }
 
 /// Shortages, overloads and violations; with a bill of material each
 /// shortage also says whose requirement it leaves short: `own_demand` units
 /// of the item's own demand and `parent_orders` (parent, its order's
-/// period, units short).
-fn faults(scenario: &Scenario, evaluation: &Evaluation, pegs: &[Peg]) -> Value {
-    let mut shortages = serde_json::to_value(&evaluation.shortages).unwrap_or(Value::Null);
+/// period, units short). Each names the unit of its item or resource.
+fn faults<'a>(scenario: &'a Scenario, evaluation: &'a Evaluation, pegs: &[Peg]) -> Faults<'a> {
+    let unit = UnitOf::new(scenario, evaluation);
+    let mut shortages: Vec<ShortageJson> = evaluation
+        .shortages
+        .iter()
+        .map(|s| ShortageJson {
+            item: &s.item,
+            own_demand: None,
+            parent_orders: None,
+            period: s.period,
+            quantity: clean(s.quantity),
+            unit: unit.item(&s.item),
+        })
+        .collect();
     if scenario.has_bom() {
         let causes = shortage_causes(scenario, evaluation, pegs);
-        if let Value::Array(list) = &mut shortages {
-            for (entry, cause) in list.iter_mut().zip(causes) {
-                if let Value::Object(map) = entry {
-                    map.insert("own_demand".into(), json!(clean(cause.own_demand)));
-                    let parents: Vec<Value> = cause
-                        .parent_orders
-                        .iter()
-                        .map(|&(k, short)| {
-                            let p = &pegs[k];
-                            json!({
-                                "parent": scenario.items[p.parent].id,
-                                "parent_period": p.parent_receipt + 1,
-                                "parent_quantity": clean(p.parent_quantity),
-                                "short": clean(short),
-                            })
-                        })
-                        .collect();
-                    map.insert("parent_orders".into(), Value::Array(parents));
-                }
-            }
+        for (entry, cause) in shortages.iter_mut().zip(causes) {
+            entry.own_demand = Some(clean(cause.own_demand));
+            entry.parent_orders = Some(
+                cause
+                    .parent_orders
+                    .iter()
+                    .map(|&(k, short)| {
+                        let p = &pegs[k];
+                        ParentOrderJson {
+                            parent: &scenario.items[p.parent].id,
+                            parent_period: p.parent_receipt + 1,
+                            parent_quantity: clean(p.parent_quantity),
+                            short: clean(short),
+                        }
+                    })
+                    .collect(),
+            );
         }
     }
-    let mut overloads = serde_json::to_value(&evaluation.overloads).unwrap_or(Value::Null);
-    let mut violations = serde_json::to_value(&evaluation.violations).unwrap_or(Value::Null);
-    for value in [&mut shortages, &mut overloads, &mut violations] {
-        clean_numbers(value);
-        add_units(scenario, value);
+    let overloads = evaluation
+        .overloads
+        .iter()
+        .map(|o| OverloadJson {
+            capacity: clean(o.capacity),
+            excess: clean(o.excess),
+            load: clean(o.load),
+            period: o.period,
+            resource: &o.resource,
+            unit: unit.resource(&o.resource),
+        })
+        .collect();
+    let violations = evaluation
+        .violations
+        .iter()
+        .map(|v| ViolationJson {
+            binding: v.binding,
+            item: &v.item,
+            kind: v.kind,
+            limit: clean(v.limit),
+            period: v.period,
+            quantity: clean(v.quantity),
+            unit: unit.item(&v.item),
+        })
+        .collect();
+    Faults {
+        shortages,
+        overloads,
+        violations,
     }
-    json!({ "shortages": shortages, "overloads": overloads, "violations": violations })
 }
 
 /// Rounds every number in a JSON value in place.
@@ -210,102 +398,12 @@ fn reason(evaluation: &Evaluation) -> Value {
     value
 }
 
-fn row(scenario: &Scenario, result: &MethodResult, reference: Option<f64>) -> Value {
-    let evaluation = &result.evaluation;
-    let total = evaluation.total_cost();
-    let extra = reference
-        .filter(|r| r.abs() > 1e-9)
-        .map(|r| clean(100.0 * (total - r) / r.abs()));
-    // Stock summed across items is a count only when they share a unit;
-    // otherwise it is `null` and the values beside it stand.
-    let stock_unit = scenario.stock_unit();
-    let counted = |v: f64| stock_unit.map(|_| clean(v));
-    let overtime_unit = scenario.capacity_unit();
-    let overtime = overtime_used(scenario, evaluation);
-    json!({
-        "method": result.method,
-        "status": result.status.name(),
-        "feasible": evaluation.feasible,
-        "total_cost": clean(total),
-        "costs": costs(&evaluation.costs),
-        "setups": evaluation.setups,
-        "stock_unit": stock_unit,
-        "average_stock": counted(evaluation.average_stock()),
-        "average_stock_value": clean(evaluation.average_stock_value(scenario)),
-        "ending_stock": counted(evaluation.items.iter().map(|r| r.ending_stock).sum()),
-        "ending_stock_value": clean(evaluation.ending_stock_value()),
-        "inventory_turns": evaluation.inventory_turns(scenario).map(clean),
-        "buckets_of_cover": evaluation.buckets_of_cover().map(clean),
-        "overtime_unit": overtime_unit,
-        "overtime_used": overtime,
-        "fill_rate": clean(evaluation.fill_rate()),
-        "extra_cost_percent": extra,
-        "reason": reason(evaluation),
-        "notes": result.notes,
-    })
-}
-
-/// The JSON of `plan`.
+/// The JSON of `plan` as a value (`plan_document` writes the same text
+/// without building it).
+/// The JSON of `plan` as a value (`plan_document` writes the same text
+/// without building it).
 pub fn plan(scenario: &Scenario, outcome: &Outcome) -> Value {
-    let chosen = &outcome.chosen;
-    let evaluation = &chosen.evaluation;
-    let pegged = pegs(scenario, evaluation);
-    let reference = outcome
-        .comparison
-        .iter()
-        .find(|r| r.is_exact() && r.evaluation.feasible)
-        .map(|r| r.total_cost());
-    let items: Vec<Value> = scenario
-        .items
-        .iter()
-        .zip(&evaluation.items)
-        .map(|(item, record)| {
-            json!({
-                "item": item.id,
-                "unit": item.unit,
-                "costs": costs(&record.costs),
-                "setups": record.setups,
-                "average_stock": clean(record.average_stock),
-                "ending_stock": clean(record.ending_stock),
-                "ending_stock_value": clean(record.ending_stock_value),
-                "fill_rate": clean(record.fill_rate),
-                "safety_stock": clean(item.safety_stock),
-                "forecast_error": item.forecast_error.map(clean),
-            })
-        })
-        .collect();
-    let mut value = json!({
-        "scenario": scenario.name,
-        "start": scenario.calendar.label(0),
-        "bucket": scenario.calendar.kind.name(),
-        "periods": scenario.periods(),
-        "frozen_periods": scenario.frozen,
-        "currency": scenario.currency,
-        "units": units(scenario),
-        "method": chosen.method,
-        "status": chosen.status.name(),
-        "solver": chosen.solver(),
-        "components": chosen.components,
-        "total_cost": clean(chosen.total_cost()),
-        "lower_bound": chosen.lower_bound.map(clean),
-        "gap": chosen.gap().map(clean),
-        "unavoidable_cost": clean(crate::eval::unavoidable_cost(scenario)),
-        "controllable_gap": super::figures::controllable_gap(scenario, chosen).map(clean),
-        "costs": costs(&evaluation.costs),
-        "setups": evaluation.setups,
-        "orders": orders(scenario, &chosen.plan),
-        "pegging": pegging(scenario, &pegged),
-        "items": items,
-        "comparison": outcome.comparison.iter().map(|r| row(scenario, r, reference)).collect::<Vec<_>>(),
-        "notes": chosen.notes,
-        "cautions": cautions(scenario, chosen),
-    });
-    if let (Value::Object(map), Value::Object(extra)) =
-        (&mut value, faults(scenario, evaluation, &pegged))
-    {
-        map.extend(extra);
-    }
-    value
+    serde_json::to_value(plan_document(scenario, outcome)).unwrap_or(Value::Null)
 }
 
 /// An order of `crate::actions` (`null` for none).
@@ -362,10 +460,21 @@ pub fn check(scenario: &Scenario, report: &CheckReport) -> Value {
         "actions": actions,
         "pegging": pegging(scenario, &pegged),
     });
-    if let (Value::Object(map), Value::Object(extra)) =
-        (&mut value, faults(scenario, evaluation, &pegged))
-    {
-        map.extend(extra);
+    let faults = faults(scenario, evaluation, &pegged);
+    if let Value::Object(map) = &mut value {
+        let list = |v: Result<Value, _>| v.unwrap_or(Value::Null);
+        map.insert(
+            "shortages".into(),
+            list(serde_json::to_value(&faults.shortages)),
+        );
+        map.insert(
+            "overloads".into(),
+            list(serde_json::to_value(&faults.overloads)),
+        );
+        map.insert(
+            "violations".into(),
+            list(serde_json::to_value(&faults.violations)),
+        );
     }
     // Each shortage with the proposed orders around it.
     if let Some(Value::Array(list)) = value.get_mut("shortages") {

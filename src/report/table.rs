@@ -562,7 +562,7 @@ fn records(scenario: &Scenario, evaluation: &Evaluation, i: usize, out: &mut Str
     let periods = scenario.periods();
     let on_hand: Vec<f64> = record.on_hand.iter().map(|&q| q.max(0.0)).collect();
     let owed: Vec<f64> = record.on_hand.iter().map(|&q| (-q).max(0.0)).collect();
-    let mut lines: Vec<(&str, &Vec<f64>)> = vec![
+    let mut lines: Vec<(&str, &[f64])> = vec![
         ("gross req.", &record.gross_requirement),
         ("sched. receipts", &record.scheduled_receipts),
     ];
@@ -570,8 +570,8 @@ fn records(scenario: &Scenario, evaluation: &Evaluation, i: usize, out: &mut Str
         lines.push(("firm receipts", &record.firm_receipts));
     }
     lines.extend([
-        ("planned receipts", &record.planned_receipts),
-        ("planned releases", &record.planned_releases),
+        ("planned receipts", &*record.planned_receipts),
+        ("planned releases", &*record.planned_releases),
         ("on hand", &on_hand),
     ]);
     // Negative stock is demand owed: shown as backlog, never as stock
