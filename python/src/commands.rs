@@ -310,6 +310,9 @@ pub fn eoq(
         lot,
     };
     let result = eoq_model::solve(&input).map_err(to_py)?;
-    let value = serde_json::to_value(&result).map_err(|e| to_py(Error::Internal(e.to_string())))?;
+    // The same JSON as `lotwright eoq --json` without --time-unit and
+    // --unit-cost: the checks that need no unit still run.
+    let hints = lotwright::single::eoq_units::check(&result, None, None);
+    let value = report::eoq::json(&result, None, &hints).map_err(to_py)?;
     json_text(&value)
 }
