@@ -583,24 +583,10 @@ fn solve_group(
     if group.resources.is_empty() {
         for (i, exact) in single {
             let item = &scenario.items[i];
-            if item.has_quantity_change() {
-                // A price per unit moved is convex in the quantity: the
-                // dynamic programs on the zero-inventory property cannot
-                // price it, the MILP prices it exactly. The program's cost
-                // without the price bounds it below.
-                let share = shared.take(options, started);
-                solve_constrained(
-                    scenario,
-                    options,
-                    started,
-                    Some((share, exact.cost)),
-                    i,
-                    &mut plan,
-                    &mut component,
-                    &mut lower_bound,
-                    &mut notes,
-                );
-            } else if item.has_lot_constraints() && !meets_lot_constraints(item, &exact.receipts) {
+            let priced = item.has_quantity_change();
+            let breaks_rules =
+                item.has_lot_constraints() && !meets_lot_constraints(item, &exact.receipts);
+            if breaks_rules && !priced {
                 // A lot multiple alone (whole units of a fractional
                 // forecast): the program on rounded requirements.
                 if let Some(rounded) = crate::single::multiple::solve(item) {
@@ -608,8 +594,14 @@ fn solve_group(
                     plan.set(i, rounded.receipts);
                     continue;
                 }
+            }
+            if priced || breaks_rules {
                 // Other lot constraints: the program over stock levels for
-                // items in lot multiples, else the MILP, handles them exactly.
+                // items in lot multiples, else the MILP, handles them
+                // exactly. A price per unit moved is convex in the
+                // quantity: the dynamic programs on the zero-inventory
+                // property cannot price it, the MILP prices it exactly. The
+                // program's cost without them bounds it below.
                 let share = shared.take(options, started);
                 solve_constrained(
                     scenario,
