@@ -15,68 +15,13 @@
 
 mod common;
 
-use common::{calendar, item};
+use common::{item, on_one_line as scenario, one_item_snapshots as snapshots};
 use lotwright::input::Snapshot;
-use lotwright::model::{Item, Resource, Routing, Scenario};
+use lotwright::model::Item;
 use lotwright::roll::{compare_plans, roll, Quiet, Release, RollOptions};
 use lotwright::solve::{solve_exact, Status};
 use proptest::collection::vec;
 use proptest::prelude::*;
-
-fn scenario(items: Vec<Item>, capacity: Option<f64>) -> Scenario {
-    let periods = items[0].periods();
-    let (resources, routings) = match capacity {
-        None => (Vec::new(), Vec::new()),
-        Some(c) => (
-            vec![Resource {
-                id: "R".into(),
-                unit: "capacity units".into(),
-                capacity: vec![c; periods],
-                overtime_capacity: vec![0.0; periods],
-                overtime_cost: 0.0,
-                capacity_cost: None,
-            }],
-            (0..items.len())
-                .map(|item| Routing {
-                    item,
-                    resource: 0,
-                    per_unit: 1.0,
-                    setup_time: 0.0,
-                })
-                .collect(),
-        ),
-    };
-    Scenario {
-        name: "roll".into(),
-        currency: None,
-        calendar: calendar(periods),
-        items,
-        resources,
-        routings,
-        frozen: 0,
-        bom: Vec::new(),
-        period_offset: 0,
-    }
-}
-
-/// Snapshots of one item: `rows[k]` is the forecast made at bucket k, for
-/// buckets k, k+1, ...
-fn snapshots(periods: usize, rows: &[&[f64]]) -> Vec<Snapshot> {
-    rows.iter()
-        .enumerate()
-        .map(|(k, row)| {
-            let mut demand = vec![0.0; periods];
-            for (j, q) in row.iter().enumerate() {
-                demand[k + j] = *q;
-            }
-            Snapshot {
-                bucket: k,
-                demand: vec![demand],
-                file: format!("{k}.csv").into(),
-            }
-        })
-        .collect()
-}
 
 fn options(horizon: usize, frozen: usize) -> RollOptions {
     RollOptions {

@@ -6,9 +6,8 @@
 
 mod common;
 
-use common::{calendar, item};
+use common::{calendar, item, one_item_snapshots as snapshots};
 use lotwright::eval::evaluate;
-use lotwright::input::Snapshot;
 use lotwright::model::{Item, Plan, QuantityChange, Resource, Routing, Scenario};
 use lotwright::roll::{roll, Quiet, RollOptions};
 use lotwright::solve::{solve_exact, Status};
@@ -19,24 +18,6 @@ fn close(a: f64, b: f64) -> bool {
 
 fn one_item_scenario(periods: usize) -> Scenario {
     common::scenario(vec![item(&vec![0.0; periods], 10.0, 1.0)])
-}
-
-/// `rows[k]` is the forecast made at bucket k for buckets k, k+1, ...
-fn snapshots(periods: usize, rows: &[&[f64]]) -> Vec<Snapshot> {
-    rows.iter()
-        .enumerate()
-        .map(|(k, row)| {
-            let mut demand = vec![0.0; periods];
-            for (j, q) in row.iter().enumerate() {
-                demand[k + j] = *q;
-            }
-            Snapshot {
-                bucket: k,
-                demand: vec![demand],
-                file: format!("{k}.csv").into(),
-            }
-        })
-        .collect()
 }
 
 fn options(change_cost: f64, per_unit: f64) -> RollOptions {

@@ -6,75 +6,14 @@
 
 mod common;
 
-use common::{calendar, item};
-use lotwright::input::Snapshot;
-use lotwright::model::{Item, Resource, Routing, Scenario};
+use common::{item, on_one_line as scenario, snapshots};
+use lotwright::model::Item;
 use lotwright::roll::shop::Cut;
 use lotwright::roll::short::Late;
 use lotwright::roll::{roll, Quiet, RollOptions};
 use lotwright::solve::Status;
 use proptest::collection::vec;
 use proptest::prelude::*;
-
-fn scenario(items: Vec<Item>, capacity: Option<f64>) -> Scenario {
-    let periods = items[0].periods();
-    let (resources, routings) = match capacity {
-        None => (Vec::new(), Vec::new()),
-        Some(c) => (
-            vec![Resource {
-                id: "R".into(),
-                unit: "capacity units".into(),
-                capacity: vec![c; periods],
-                overtime_capacity: vec![0.0; periods],
-                overtime_cost: 0.0,
-                capacity_cost: None,
-            }],
-            (0..items.len())
-                .map(|item| Routing {
-                    item,
-                    resource: 0,
-                    per_unit: 1.0,
-                    setup_time: 0.0,
-                })
-                .collect(),
-        ),
-    };
-    Scenario {
-        name: "shop".into(),
-        currency: None,
-        calendar: calendar(periods),
-        items,
-        resources,
-        routings,
-        frozen: 0,
-        bom: Vec::new(),
-        period_offset: 0,
-    }
-}
-
-/// Snapshots: `rows[k][i]` is item i's forecast made at bucket k, for
-/// buckets k, k+1, ...
-fn snapshots(periods: usize, rows: &[Vec<Vec<f64>>]) -> Vec<Snapshot> {
-    rows.iter()
-        .enumerate()
-        .map(|(k, by_item)| Snapshot {
-            bucket: k,
-            demand: by_item
-                .iter()
-                .map(|row| {
-                    let mut demand = vec![0.0; periods];
-                    for (j, q) in row.iter().enumerate() {
-                        if k + j < periods {
-                            demand[k + j] = *q;
-                        }
-                    }
-                    demand
-                })
-                .collect(),
-            file: format!("{k}.csv").into(),
-        })
-        .collect()
-}
 
 fn options(method: &str, horizon: usize, frozen: usize) -> RollOptions {
     RollOptions {

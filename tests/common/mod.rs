@@ -9,7 +9,8 @@
 use std::path::Path;
 
 use chrono::NaiveDate;
-use lotwright::model::{BucketKind, Calendar, Item, Plan, Scenario};
+use lotwright::input::Snapshot;
+use lotwright::model::{BucketKind, Calendar, Item, Plan, Resource, Routing, Scenario};
 use tempfile::TempDir;
 
 /// A plain item: constant setup and holding cost, no unit cost, no stock,
@@ -105,4 +106,73 @@ pub fn lotwright(args: &[&str]) -> (i32, String, String) {
         String::from_utf8_lossy(&output.stdout).into_owned(),
         String::from_utf8_lossy(&output.stderr).into_owned(),
     )
+}
+
+/// A scenario of the given items (one horizon) on one line "R" of
+/// `capacity` a bucket, 1 unit of capacity per unit and no setup time, or
+/// with no resources when `capacity` is `None` (the rolling-run tests).
+pub fn on_one_line(items: Vec<Item>, capacity: Option<f64>) -> Scenario {
+    let periods = items[0].periods();
+    let (resources, routings) = match capacity {
+        None => (Vec::new(), Vec::new()),
+        Some(c) => (
+            vec![Resource {
+                id: "R".into(),
+                unit: "capacity units".into(),
+                capacity: vec![c; periods],
+                overtime_capacity: vec![0.0; periods],
+                overtime_cost: 0.0,
+                capacity_cost: None,
+            }],
+            (0..items.len())
+                .map(|item| Routing {
+                    item,
+                    resource: 0,
+                    per_unit: 1.0,
+                    setup_time: 0.0,
+                })
+                .collect(),
+        ),
+    };
+    Scenario {
+        name: "roll".into(),
+        currency: None,
+        calendar: calendar(periods),
+        items,
+        resources,
+        routings,
+        frozen: 0,
+        bom: Vec::new(),
+        period_offset: 0,
+    }
+}
+
+/// Forecast snapshots: `rows[k][i]` is item i's forecast made at bucket k,
+/// for buckets k, k+1, ... (cut at the horizon).
+pub fn snapshots(periods: usize, rows: &[Vec<Vec<f64>>]) -> Vec<Snapshot> {
+    rows.iter()
+        .enumerate()
+        .map(|(k, by_item)| Snapshot {
+            bucket: k,
+            demand: by_item
+                .iter()
+                .map(|row| {
+                    let mut demand = vec![0.0; periods];
+                    for (j, q) in row.iter().enumerate() {
+                        if k + j < periods {
+                            demand[k + j] = *q;
+                        }
+                    }
+                    demand
+                })
+                .collect(),
+            file: format!("{k}.csv").into(),
+        })
+        .collect()
+}
+
+/// Snapshots of one item: `rows[k]` is the forecast made at bucket k.
+pub fn one_item_snapshots(periods: usize, rows: &[&[f64]]) -> Vec<Snapshot> {
+    let rows: Vec<Vec<Vec<f64>>> = rows.iter().map(|row| vec![row.to_vec()]).collect();
+    snapshots(periods, &rows)
 }
