@@ -35,6 +35,7 @@
 //! received and costed. Plan stability compares each plan with the one
 //! before over the buckets both cover.
 
+pub mod horizon_end;
 pub mod shop;
 pub mod short;
 
@@ -67,6 +68,9 @@ pub struct RollOptions {
     /// the forecast errors seen so far (`safety_estimates`), where that is
     /// above the item's own.
     pub service_level: Option<f64>,
+    /// Charge the setups in each window's last buckets only for the share
+    /// of an economic cycle they cover inside it (`horizon_end`).
+    pub end_correction: bool,
 }
 
 /// Forecast errors needed before an item's error is estimated.
@@ -345,6 +349,9 @@ pub fn roll(
                     item.firm[t] = (item.firm[t] - base.items[i].firm[b + t]).max(0.0);
                 }
             }
+        }
+        if options.end_correction {
+            horizon_end::correct(&mut window);
         }
         if let Some((prev_end, orders)) = &previous {
             // The previous plan's orders inside the freeze are pinned (the

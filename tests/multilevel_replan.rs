@@ -120,6 +120,7 @@ fn roll_exact(dir: &tempfile::TempDir, snapshots: &[(&str, &str)]) -> lotwright:
         method: "exact".into(),
         milp: Default::default(),
         service_level: None,
+        end_correction: false,
     };
     roll(&base, &history, &options, &Quiet).expect("a run")
 }

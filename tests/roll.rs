@@ -32,6 +32,7 @@ fn options(horizon: usize, frozen: usize) -> RollOptions {
         method: "exact".into(),
         milp: Default::default(),
         service_level: None,
+        end_correction: false,
     }
 }
 

@@ -29,6 +29,7 @@ fn options(change_cost: f64, per_unit: f64) -> RollOptions {
         method: "exact".into(),
         milp: Default::default(),
         service_level: None,
+        end_correction: false,
     }
 }
 

@@ -97,6 +97,7 @@ fn a_run_with_a_service_level_plans_the_safety_stock() {
         method: "exact".into(),
         milp: Default::default(),
         service_level: level,
+        end_correction: false,
     };
     let plain = roll(&base, &snapshots, &options(None), &Quiet).expect("a run");
     let safe = roll(&base, &snapshots, &options(Some(0.95)), &Quiet).expect("a run");

@@ -24,6 +24,7 @@ fn options(method: &str, horizon: usize, frozen: usize) -> RollOptions {
         method: method.into(),
         milp: Default::default(),
         service_level: None,
+        end_correction: false,
     }
 }
 

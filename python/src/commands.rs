@@ -218,6 +218,7 @@ pub fn roll(
                 method,
                 milp: milp.clone(),
                 service_level: None,
+                end_correction: false,
             };
             results.push(roll_method(&scenario, &history, &options, &Quiet)?);
         }
@@ -232,6 +233,7 @@ pub fn roll(
             time_limit,
             results: &results,
             safety: None,
+            end_correction: false,
         };
         Ok::<_, Error>(report::json::roll(&run))
     })?

@@ -293,6 +293,12 @@ struct RollArgs {
     /// frontier.
     #[arg(long, value_name = "U", value_delimiter = ',')]
     change_cost_per_unit: Vec<f64>,
+    /// Charge the setups in each plan's last buckets only for the share of
+    /// an economic cycle (the EOQ's time between orders) that falls inside
+    /// the plan, so that plans do not stretch their last lots to the
+    /// horizon's end; every method of the run plans with it.
+    #[arg(long)]
+    end_correction: bool,
     /// Print one JSON object on stdout instead of tables.
     #[arg(long)]
     json: bool,
@@ -704,6 +710,7 @@ fn roll_command(args: RollArgs) -> Result<i32> {
             method,
             milp: milp.clone(),
             service_level: args.freeze.service_level,
+            end_correction: args.end_correction,
         };
         let mut result = roll(&scenario, &history, &options, &progress)?;
         if settings.len() > 1 && (cost > 0.0 || per_unit > 0.0) {
@@ -723,6 +730,7 @@ fn roll_command(args: RollArgs) -> Result<i32> {
         frontier,
         time_limit: milp.time_limit,
         results: &results,
+        end_correction: args.end_correction,
         safety: args.freeze.service_level.map(|level| {
             (
                 level,

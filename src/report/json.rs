@@ -729,6 +729,7 @@ pub fn roll(run: &super::table::RollRun) -> Value {
         "horizon": run.horizon,
         "frozen_periods": run.frozen,
         "change_cost": clean(run.change_cost),
+        "end_correction": run.end_correction,
         "time_limit": run.time_limit,
         "methods": methods,
     });

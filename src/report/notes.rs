@@ -263,3 +263,11 @@ pub fn no_plan_to_compare(c: &crate::compare::Comparison) -> String {
         "Items not compared: {who} (see its status above); the orders shown in its place are lot-for-lot for reference, so item-by-item differences would mean nothing."
     )
 }
+
+/// The rolling run's end-of-horizon correction (`roll::horizon_end`), as a
+/// term of the run's description; `unit` is the bucket's name.
+pub fn end_correction(unit: &str) -> String {
+    format!(
+        "setups in each plan's last {unit}s charged only for the share of an economic cycle they cover inside the plan (end-of-horizon correction; the realised cost charges them whole)"
+    )
+}

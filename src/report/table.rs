@@ -954,6 +954,9 @@ pub struct RollRun<'a> {
     /// stock from the forecast errors of the whole history (the last
     /// week's estimate; earlier weeks saw fewer errors).
     pub safety: Option<(f64, Vec<Option<crate::roll::SafetyEstimate>>)>,
+    /// Whether each window's last setups were weighted
+    /// (`roll::horizon_end`).
+    pub end_correction: bool,
 }
 
 /// The name of an exact run among several priced ones: the method and
@@ -1019,6 +1022,9 @@ pub fn roll(run: &RollRun) -> String {
             "change cost up to {} per unit moved from the previous plan",
             money(most)
         ));
+    }
+    if run.end_correction {
+        terms.push(super::notes::end_correction(unit));
     }
     terms.push(format!(
         "each plan's search for the least cost stops after {} s",

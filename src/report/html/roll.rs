@@ -335,6 +335,9 @@ pub(super) fn page(run: &RollRun) -> String {
             cash.of(run.change_cost)
         ));
     }
+    if run.end_correction {
+        terms.push(crate::report::notes::end_correction(unit));
+    }
     terms.push(format!(
         "each plan's search for the least cost stopped after {} s",
         run.time_limit
