@@ -39,6 +39,8 @@ pub mod horizon_end;
 pub mod shop;
 pub mod short;
 
+use std::time::Instant;
+
 use crate::capacity::milp::MilpOptions;
 use crate::eval::{evaluate, Evaluation};
 use crate::input::Snapshot;
@@ -401,20 +403,30 @@ pub fn roll(
                 }
             }
         }
-        let plan = |scenario: &Scenario| {
+        // The week's time limit covers both tries: a window found to have
+        // no plan on time is planned again with what is left (at least a
+        // quarter of the limit, so that the second try has time to find a
+        // plan at all).
+        let started = Instant::now();
+        let plan = |scenario: &Scenario, time_limit: f64| {
             solve::plan_scenario(
                 scenario,
                 &solve::Options {
                     method: Some(options.method.clone()),
-                    milp: options.milp.clone(),
+                    milp: MilpOptions {
+                        time_limit,
+                        ..options.milp.clone()
+                    },
                 },
             )
             .map(|outcome| outcome.chosen)
         };
-        let mut planned = plan(&window)?;
+        let limit = options.milp.time_limit;
+        let mut planned = plan(&window, limit)?;
         let mut late = Vec::new();
         if planned.is_exact() && planned.status == Status::Infeasible {
-            let again = plan(&short::with_backlog(&window))?;
+            let left = (limit - started.elapsed().as_secs_f64()).max(limit / 4.0);
+            let again = plan(&short::with_backlog(&window), left)?;
             if again.evaluation.feasible {
                 late = short::late(&window, &again, b);
                 planned = again;

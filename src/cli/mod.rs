@@ -318,6 +318,13 @@ struct RollArgs {
     /// Threads HiGHS may use (default: its own choice).
     #[arg(long, value_name = "N")]
     threads: Option<u32>,
+    /// The solver's random seed (default 1), as for plan.
+    #[arg(long, value_name = "N")]
+    seed: Option<u32>,
+    /// Stop each week's MILP after N branch-and-bound nodes (as for plan):
+    /// with it, a run gives the same plans every time.
+    #[arg(long, value_name = "N")]
+    nodes: Option<u64>,
 }
 
 /// Demand, holding cost, production rate and backorder cost must all be
@@ -620,8 +627,8 @@ fn roll_command(args: RollArgs) -> Result<i32> {
         gap: None,
         threads: args.threads,
         solver: "auto".into(),
-        seed: None,
-        nodes: None,
+        seed: args.seed,
+        nodes: args.nodes,
     };
     let milp = limits.milp()?;
     if args.horizon == 0 {
@@ -700,25 +707,33 @@ fn roll_command(args: RollArgs) -> Result<i32> {
         }
     }
     let progress = progress::RollLine::new(!args.json);
-    let mut results = Vec::new();
-    for (method, cost, per_unit) in runs {
-        let options = RollOptions {
-            horizon: args.horizon,
-            frozen,
-            change_cost: cost,
-            change_cost_per_unit: per_unit,
-            method,
-            milp: milp.clone(),
-            service_level: args.freeze.service_level,
-            end_correction: args.end_correction,
-        };
-        let mut result = roll(&scenario, &history, &options, &progress)?;
-        if settings.len() > 1 && (cost > 0.0 || per_unit > 0.0) {
-            // Several priced runs of one method need names of their own.
-            result.label = report::table::priced_label(&result);
-        }
-        results.push(result);
-    }
+    // The runs are independent: they run at once, as many as there are
+    // cores, and keep their order.
+    let results: Vec<lotwright::roll::RollResult> = {
+        use rayon::prelude::*;
+        runs.into_par_iter()
+            .with_max_len(1)
+            .map(|(method, cost, per_unit)| {
+                let options = RollOptions {
+                    horizon: args.horizon,
+                    frozen,
+                    change_cost: cost,
+                    change_cost_per_unit: per_unit,
+                    method,
+                    milp: milp.clone(),
+                    service_level: args.freeze.service_level,
+                    end_correction: args.end_correction,
+                };
+                let mut result = roll(&scenario, &history, &options, &progress)?;
+                if settings.len() > 1 && (cost > 0.0 || per_unit > 0.0) {
+                    // Several priced runs of one method need names of
+                    // their own.
+                    result.label = report::table::priced_label(&result);
+                }
+                Ok(result)
+            })
+            .collect::<Result<Vec<_>>>()?
+    };
     progress.finish();
     let run = report::table::RollRun {
         scenario: &scenario,

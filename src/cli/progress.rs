@@ -139,32 +139,46 @@ impl Progress for Spinner {
 
 /// One line on stderr, rewritten as each week of a rolling run is planned
 /// (only on a terminal, and not with `--json`).
+/// One line on stderr for a rolling run: each method running and the
+/// week it has reached (several methods run at once).
 pub struct RollLine {
     show: bool,
+    running: Mutex<Vec<(String, usize, usize)>>,
 }
 
 impl RollLine {
     pub fn new(show: bool) -> RollLine {
         RollLine {
             show: show && std::io::stderr().is_terminal(),
+            running: Mutex::new(Vec::new()),
         }
     }
 
     pub fn finish(&self) {
         if self.show {
-            eprint!("\r{:70}\r", "");
+            eprint!("\r{:100}\r", "");
         }
     }
 }
 
 impl lotwright::roll::RollProgress for RollLine {
-    fn week_done(&self, label: &str, week: usize, weeks: usize, status: Status) {
-        if self.show {
-            eprint!(
-                "\r{label}: week {week} of {weeks} planned ({})   ",
-                status.name()
-            );
+    fn week_done(&self, label: &str, week: usize, weeks: usize, _status: Status) {
+        if !self.show {
+            return;
         }
+        let Ok(mut running) = self.running.lock() else {
+            return;
+        };
+        match running.iter_mut().find(|(l, _, _)| l == label) {
+            Some(entry) => *entry = (label.to_string(), week, weeks),
+            None => running.push((label.to_string(), week, weeks)),
+        }
+        running.retain(|(_, week, weeks)| week < weeks);
+        let line: Vec<String> = running
+            .iter()
+            .map(|(label, week, weeks)| format!("{label}: week {week} of {weeks}"))
+            .collect();
+        eprint!("\r{:100}\r{}", "", line.join("; "));
     }
 }
 
