@@ -263,6 +263,22 @@ impl RollResult {
         self.weeks.iter().map(|w| w.overload).sum()
     }
 
+    /// The realised cost of setup, holding, backlog and overtime per unit
+    /// of demand met from stock on time: a figure that compares methods
+    /// which serve different shares of the demand (one that leaves demand
+    /// unmet pays for fewer units, and serves fewer). None when nothing
+    /// was met.
+    pub fn cost_per_unit_served(&self) -> Option<f64> {
+        let e = &self.realised;
+        let met: f64 = e
+            .items
+            .iter()
+            .map(|r| r.fill_rate * r.gross_requirement.iter().sum::<f64>())
+            .sum();
+        let c = &e.costs;
+        (met > 1e-9).then(|| (c.total() - c.unit) / met)
+    }
+
     /// The largest gap of a week's plan that is not proven optimal.
     pub fn worst_gap(&self) -> Option<f64> {
         self.weeks

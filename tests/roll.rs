@@ -47,7 +47,8 @@ fn close(a: f64, b: f64) -> bool {
 /// holds 10: no order. Realised: setups 200, holding 10 + 10 + 0, total
 /// 220, every unit on time. Week 2's plan adds an order where week 1's
 /// had none (in week 2, the week both cover): 100 % changed, 30 units
-/// moved; weeks 2 and 3 share week 3, where neither plans an order.
+/// moved; weeks 2 and 3 share week 3, where neither plans an order. Per
+/// unit served: 220 / 50 = 4.40.
 #[test]
 fn a_run_followed_by_hand() {
     let base = scenario(vec![item(&[10.0, 30.0, 10.0], 100.0, 1.0)], None);
@@ -62,6 +63,8 @@ fn a_run_followed_by_hand() {
     assert!(close(run.realised.costs.holding, 20.0));
     assert_eq!(run.realised.setups, 2);
     assert!(close(run.realised.fill_rate(), 1.0));
+    // 220 over the 50 units sold, every one on time.
+    assert!(close(run.cost_per_unit_served().unwrap(), 4.4));
     let second = run.weeks[1].stability.expect("against week 1");
     assert_eq!(
         (

@@ -86,6 +86,7 @@ fn run_and_compare(dir: &Path, terms: &[String], out: &Path) -> Value {
             "total_cost",
             "setups",
             "fill_rate",
+            "cost_per_unit_served",
             "most_short",
             "ending_stock_value",
             "overload_planned",
@@ -107,6 +108,7 @@ fn run_and_compare(dir: &Path, terms: &[String], out: &Path) -> Value {
             &r["total_cost"],
             &r["setups"],
             &r["fill_rate"],
+            &r["cost_per_unit_served"],
             &r["most_short"],
             &r["ending_stock_value"],
             &r["overload_planned"],
@@ -241,7 +243,7 @@ fn the_four_week_demo_writes_the_figures_the_json_prints() {
         .find(|r| r[0] == "exact")
         .expect("an exact row");
     assert_eq!((exact[1].as_str(), exact[8].as_str()), ("390", "3"));
-    assert_eq!(&exact[12..], ["0", "0", "0"]);
+    assert_eq!(&exact[13..], ["0", "0", "0"]);
     let (_, stability) = read_csv(&out.join("stability.csv"));
     let exact = stability.iter().find(|r| r[0] == "exact").unwrap();
     assert_eq!((exact[6].as_str(), exact[7].as_str()), ("280", "520"));

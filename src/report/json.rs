@@ -663,6 +663,7 @@ pub fn roll(run: &super::table::RollRun) -> Value {
                     "costs": costs(&e.costs),
                     "setups": e.setups,
                     "fill_rate": clean(e.fill_rate()),
+                    "cost_per_unit_served": r.cost_per_unit_served().map(clean),
                     "average_stock": clean(e.average_stock()),
                     "shortages": e.shortages.len(),
                     "most_short": clean(r.most_short()),

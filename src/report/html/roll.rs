@@ -35,6 +35,7 @@ fn realised_section(run: &RollRun, out: &mut String) {
         "end stock value",
         "setups",
         "fill rate",
+        "cost per unit served",
         "most short",
     ]);
     let rows: Vec<Vec<(String, bool)>> = results
@@ -59,13 +60,14 @@ fn realised_section(run: &RollRun, out: &mut String) {
                 num(money(e.ending_stock_value())),
                 num(e.setups.to_string()),
                 num(percent(e.fill_rate(), 1)),
+                num(r.cost_per_unit_served().map_or("-".into(), money)),
                 num(units(r.most_short())),
             ]);
             row
         })
         .collect();
     table(out, "wide", &header, &rows);
-    let _ = write!(out, "<p class=\"small\">Cost: setup, holding, backlog and overtime{}. End stock: its value at unit cost. Most short: the most units short at the end of a {unit} (items without backlog). Fill rate: the share of the demand that happened met from stock on time.</p>", run.scenario.currency.as_ref().map(|c| format!(", in {}", escape(c))).unwrap_or_default());
+    let _ = write!(out, "<p class=\"small\">Cost: setup, holding, backlog and overtime{}. End stock: its value at unit cost. Most short: the most units short at the end of a {unit} (items without backlog). Fill rate: the share of the demand that happened met from stock on time. Cost per unit served: the cost over the units met on time, the figure to compare methods that serve different shares of the demand by.</p>", run.scenario.currency.as_ref().map(|c| format!(", in {}", escape(c))).unwrap_or_default());
     if results.iter().any(|r| r.overload_planned() > 0.0) {
         let _ = write!(out, "<h3>Carried out as the lines allow</h3><p>Where a {unit}'s orders needed more than capacity plus overtime, the shop made what fitted: the item whose stock could wait longest was cut first, and the next {unit}'s plan started from the stock that resulted.</p>");
         let rows: Vec<Vec<(String, bool)>> = results

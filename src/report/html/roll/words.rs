@@ -26,6 +26,26 @@ fn listed(labels: &[&str]) -> String {
     }
 }
 
+/// Where the methods serve different shares of the demand: which costs
+/// least per unit met on time, and by how much against the next.
+fn per_unit_served(results: &[RollResult], cash: &Cash) -> Option<String> {
+    let mut ranked: Vec<(&str, f64)> = results
+        .iter()
+        .filter_map(|r| r.cost_per_unit_served().map(|c| (r.label.as_str(), c)))
+        .collect();
+    ranked.sort_by(|a, b| a.1.total_cmp(&b.1));
+    let (first, least) = *ranked.first()?;
+    let mut sentence = format!(
+        "Per unit of demand met on time, which compares methods that serve different shares, {first} costs the least: {} a unit",
+        cash.of(least)
+    );
+    if let Some(&(second, next)) = ranked.get(1) {
+        let _ = write!(sentence, ", against {} for {second}", cash.of(next));
+    }
+    sentence.push('.');
+    Some(sentence)
+}
+
 pub(super) fn summary(run: &RollRun, cash: &Cash, out: &mut String) {
     let unit = run.scenario.calendar.kind.name();
     let results = run.results;
@@ -90,6 +110,11 @@ pub(super) fn summary(run: &RollRun, cash: &Cash, out: &mut String) {
                 listed(&highest)
             )
         });
+        if high - low >= 5e-4 {
+            if let Some(sentence) = per_unit_served(results, cash) {
+                sentences.push(sentence);
+            }
+        }
     }
     let cut: Vec<&RollResult> = results.iter().filter(|r| r.units_cut() > 0.0).collect();
     if cut.is_empty() {
