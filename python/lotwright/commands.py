@@ -135,12 +135,15 @@ def roll(
     time_limit: Optional[float] = None,
     threads: Optional[int] = None,
     plain_too: bool = True,
+    end_correction: bool = False,
 ) -> RollResult:
     """Replans bucket by bucket over the forecast snapshots in ``history``
     (a folder, or a dict of tables by date), as ``lotwright roll``: each
     week's MILP stops after ``time_limit`` seconds (5 by default). With a
     ``change_cost`` the exact method runs with and without it, unless
-    ``plain_too`` is False."""
+    ``plain_too`` is False. ``end_correction`` charges the setups in each
+    plan's last buckets only for the share of an economic cycle they cover
+    inside the plan, as ``--end-correction``."""
     methods = [] if method is None else [method] if isinstance(method, str) else list(method)
     with staging() as stage:
         folder = scenario_folder(stage, scenario)
@@ -156,6 +159,7 @@ def roll(
             frozen=frozen,
             time_limit=time_limit,
             threads=threads,
+            end_correction=end_correction,
         )
     return RollResult(json.loads(text))
 

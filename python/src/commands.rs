@@ -169,7 +169,7 @@ pub fn compare(
 /// without it; `plain_too=False` runs only the priced one (one policy of a
 /// grid).
 #[pyfunction]
-#[pyo3(signature = (dir, history, sets=Vec::new(), horizon=13, methods=Vec::new(), change_cost=None, plain_too=true, frozen=None, time_limit=None, threads=None))]
+#[pyo3(signature = (dir, history, sets=Vec::new(), horizon=13, methods=Vec::new(), change_cost=None, plain_too=true, frozen=None, time_limit=None, threads=None, end_correction=false))]
 #[allow(clippy::too_many_arguments)]
 pub fn roll(
     py: Python<'_>,
@@ -183,6 +183,7 @@ pub fn roll(
     frozen: Option<usize>,
     time_limit: Option<f64>,
     threads: Option<u32>,
+    end_correction: bool,
 ) -> PyResult<String> {
     let milp = milp_options(Some(time_limit.unwrap_or(5.0)), None, threads, "auto")?;
     let cancel = milp.interrupt.clone();
@@ -218,7 +219,7 @@ pub fn roll(
                 method,
                 milp: milp.clone(),
                 service_level: None,
-                end_correction: false,
+                end_correction,
             };
             results.push(roll_method(&scenario, &history, &options, &Quiet)?);
         }
@@ -233,7 +234,7 @@ pub fn roll(
             time_limit,
             results: &results,
             safety: None,
-            end_correction: false,
+            end_correction,
         };
         Ok::<_, Error>(report::json::roll(&run))
     })?

@@ -58,6 +58,9 @@ def test_check_compare_roll_and_eoq_equal_the_cli(cli):
     assert cents(rolled.json) == cents(cli("roll", folder, "--history", history, "--horizon", "3", "--frozen", "1", "--change-cost", "10"))
     assert set(rolled.methods["method"]) >= {"exact", "exact+change-cost", "lot-for-lot"}
     assert len(rolled.weeks) == 4 * len(rolled.methods)
+    corrected = lw.roll(folder, history, horizon=3, frozen=1, method="exact", end_correction=True)
+    assert corrected.json["end_correction"] is True
+    assert cents(corrected.json) == cents(cli("roll", folder, "--history", history, "--horizon", "3", "--frozen", "1", "--method", "exact", "--end-correction"))
     compared = lw.compare(folder, set=["demand=120%"])
     expected = cli("compare", folder, "--set", "demand=120%")
     assert cents(compared.json["difference"]) == cents(expected["difference"])
