@@ -26,8 +26,14 @@ fn listed(labels: &[&str]) -> String {
     }
 }
 
+/// The method a run belongs to: `exact` for `exact+change-cost` and
+/// `exact C=100 U=0`.
+fn family(label: &str) -> &str {
+    label.split(['+', ' ']).next().unwrap_or(label)
+}
+
 /// Where the methods serve different shares of the demand: which costs
-/// least per unit met on time, and by how much against the next.
+/// least per unit met on time, and the least of another method beside it.
 fn per_unit_served(results: &[RollResult], cash: &Cash) -> Option<String> {
     let mut ranked: Vec<(&str, f64)> = results
         .iter()
@@ -39,8 +45,12 @@ fn per_unit_served(results: &[RollResult], cash: &Cash) -> Option<String> {
         "Per unit of demand met on time, which compares methods that serve different shares, {first} costs the least: {} a unit",
         cash.of(least)
     );
-    if let Some(&(second, next)) = ranked.get(1) {
-        let _ = write!(sentence, ", against {} for {second}", cash.of(next));
+    if let Some(&(other, next)) = ranked.iter().find(|(l, _)| family(l) != family(first)) {
+        let _ = write!(
+            sentence,
+            ", against {} for {other}, the least of another method",
+            cash.of(next)
+        );
     }
     sentence.push('.');
     Some(sentence)
@@ -63,6 +73,15 @@ pub(super) fn summary(run: &RollRun, cash: &Cash, out: &mut String) {
             listed(&cheapest),
             cash.of(least)
         );
+        if let [one] = cheapest.as_slice() {
+            if let Some(r) = results.iter().find(|r| r.label == *one) {
+                let _ = write!(
+                    lead,
+                    ", at a fill rate of {}",
+                    percent(r.realised.fill_rate(), 1)
+                );
+            }
+        }
         if most > least + 0.005 {
             let dearest: Vec<&str> = results
                 .iter()
