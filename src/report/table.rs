@@ -1044,7 +1044,7 @@ pub fn roll(run: &RollRun) -> String {
         "end stock",
         "setups",
         "fill rate",
-        "per unit served",
+        "per unit",
         "short",
     ]);
     for r in run.results {
@@ -1066,7 +1066,7 @@ pub fn roll(run: &RollRun) -> String {
     }
     grid.render(&mut out);
     wrap(
-        &format!("cost: setup, holding and other (backlog and overtime); unit cost is left apart, as it follows the units bought, and a method that leaves demand unmet or stock at the end buys fewer or more; per unit served: that cost over the units of demand met on time, the figure to compare methods that serve different shares of the demand by; end stock: its value at unit cost; short: the most units short at the end of a {unit} (items without backlog)"),
+        &format!("cost: setup, holding and other (backlog and overtime); unit cost is left apart, as it follows the units bought, and a method that leaves demand unmet or stock at the end buys fewer or more; per unit: that cost over the units of demand met on time (cost per unit served), the figure to compare methods that serve different shares of the demand by; end stock: its value at unit cost; short: the most units short at the end of a {unit} (items without backlog)"),
         "  ",
         &mut out,
     );
