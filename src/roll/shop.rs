@@ -9,13 +9,16 @@
 //! the next week's plan starts from the stock that resulted and plans the
 //! shortfall again.
 //!
-//! Order of the cut, on an overloaded resource: first the order of the
-//! item with the most cover without it (stock on hand plus what arrives
-//! this bucket, less this bucket's requirement, over its mean requirement
-//! in the buckets ahead), that is the item that can wait longest; ties go
-//! to the later item in items.csv. An order is cut down to what still
-//! fits, kept whole where the item has a lot multiple and above its
+//! Order of the cut: the orders are carried out in order of urgency, the
+//! item with the least cover without its order first (stock on hand plus
+//! what arrives this bucket, less this bucket's requirement, over its mean
+//! requirement in the buckets ahead); ties go to the earlier item in
+//! items.csv. Each is made as far as it still fits on every resource it
+//! uses, kept whole where the item has a lot multiple and at or above its
 //! minimum lot, or dropped with its setup time when less would not fit.
+//! So the item that can wait longest is cut first, and an order dropped
+//! leaves its room to the orders after it (tests/roll_shop.rs checks the
+//! result against every choice on small cases).
 
 use crate::model::Scenario;
 
@@ -44,76 +47,90 @@ pub struct Carried {
     pub overload: f64,
 }
 
-/// Fits the releases of bucket `b` to the resources of `base`. `cover`
-/// gives, by item, the buckets of requirement its stock covers without
-/// this bucket's order (larger is cut first).
+/// Carries out bucket `b`'s releases as the lines allow. `cover[i]` is
+/// item i's cover in buckets without this bucket's order (infinite for an
+/// item with no requirement ahead).
 pub fn carry_out(base: &Scenario, b: usize, releases: &[Release], cover: &[f64]) -> Carried {
     let mut orders: Vec<Release> = releases.to_vec();
-    let load = |orders: &[Release], r: usize| -> f64 {
-        base.routings
-            .iter()
-            .filter(|route| route.resource == r)
-            .map(|route| {
-                orders
-                    .iter()
-                    .filter(|o| o.item == route.item && o.quantity > 0.0)
-                    .map(|o| route.per_unit * o.quantity + route.setup_time)
-                    .sum::<f64>()
-            })
-            .sum()
-    };
+    let resources = base.resources.len();
     let limit = |r: usize| {
         let resource = &base.resources[r];
         resource.capacity[b] + resource.overtime_capacity[b]
     };
     let tolerance = |r: usize| 1e-9 * (1.0 + limit(r).abs());
-    let overload: f64 = (0..base.resources.len())
-        .map(|r| (load(&orders, r) - limit(r)).max(0.0))
-        .sum();
+    let routes = |item: usize| base.routings.iter().filter(move |route| route.item == item);
+    let mut load = vec![0.0; resources];
+    for o in orders.iter().filter(|o| o.quantity > 0.0) {
+        for route in routes(o.item) {
+            load[route.resource] += route.per_unit * o.quantity + route.setup_time;
+        }
+    }
+    let overload: f64 = (0..resources).map(|r| (load[r] - limit(r)).max(0.0)).sum();
+    if (0..resources).all(|r| load[r] <= limit(r) + tolerance(r)) {
+        orders.retain(|o| o.quantity > 0.0);
+        return Carried {
+            orders,
+            cuts: Vec::new(),
+            overload,
+        };
+    }
+    // The orders that can wait least go first, each as much as still fits
+    // on every resource it uses; ties go to the earlier item, so the later
+    // one is cut first.
+    let mut turn: Vec<usize> = (0..orders.len()).collect();
+    turn.sort_by(|&x, &y| {
+        let (ox, oy) = (&orders[x], &orders[y]);
+        cover[ox.item]
+            .total_cmp(&cover[oy.item])
+            .then(ox.item.cmp(&oy.item))
+    });
+    let mut used = vec![0.0; resources];
     let mut cuts = Vec::new();
-    for r in 0..base.resources.len() {
-        while load(&orders, r) > limit(r) + tolerance(r) {
-            // The order on r that can wait longest.
-            let pick = orders
-                .iter()
-                .enumerate()
-                .filter(|(_, o)| o.quantity > 0.0)
-                .filter_map(|(k, o)| {
-                    base.routings
-                        .iter()
-                        .find(|route| route.resource == r && route.item == o.item)
-                        .map(|route| (k, route.per_unit))
-                })
-                .max_by(|(x, _), (y, _)| {
-                    let (ox, oy) = (&orders[*x], &orders[*y]);
-                    cover[ox.item]
-                        .total_cmp(&cover[oy.item])
-                        .then(ox.item.cmp(&oy.item))
-                });
-            let Some((k, per_unit)) = pick else { break };
-            let excess = load(&orders, r) - limit(r);
-            let item = &base.items[orders[k].item];
-            let had = orders[k].quantity;
-            let mut keep = if per_unit > 0.0 {
-                had - excess / per_unit
-            } else {
+    for k in turn {
+        let had = orders[k].quantity;
+        if had <= 0.0 {
+            continue;
+        }
+        let item = &base.items[orders[k].item];
+        let mut keep = had;
+        let mut binding = None;
+        for route in routes(orders[k].item) {
+            let r = route.resource;
+            let room = limit(r) - used[r] - route.setup_time;
+            let fits = if room < -tolerance(r) {
                 0.0
+            } else if route.per_unit > 0.0 {
+                room.max(0.0) / route.per_unit
+            } else {
+                f64::INFINITY
             };
+            if fits < keep - 1e-9 * (1.0 + keep) {
+                keep = fits;
+                binding = Some(r);
+            }
+        }
+        if let Some(r) = binding {
             if let Some(multiple) = item.lot_multiple {
                 keep = (keep / multiple + 1e-9).floor() * multiple;
             }
-            if keep < item.min_lot.max(1e-9) || keep <= 0.0 {
+            if keep < item.min_lot.max(1e-9) {
                 keep = 0.0;
             }
-            // Always take something off, or the loop would not end.
-            let keep = if keep >= had { 0.0 } else { keep };
-            cuts.push(Cut {
-                item: orders[k].item,
-                bucket: b,
-                resource: r,
-                quantity: had - keep,
-            });
-            orders[k].quantity = keep;
+            let keep = keep.min(had);
+            if keep < had {
+                cuts.push(Cut {
+                    item: orders[k].item,
+                    bucket: b,
+                    resource: r,
+                    quantity: had - keep,
+                });
+                orders[k].quantity = keep;
+            }
+        }
+        if orders[k].quantity > 0.0 {
+            for route in routes(orders[k].item) {
+                used[route.resource] += route.per_unit * orders[k].quantity + route.setup_time;
+            }
         }
     }
     orders.retain(|o| o.quantity > 0.0);
