@@ -11,7 +11,7 @@
 mod common;
 
 use lotwright::eval::evaluate;
-use lotwright::model::{BomLine, Item, Plan, Resource, Routing, Scenario};
+use lotwright::model::{BomLine, Item, Plan, QuantityChange, Resource, Routing, Scenario};
 use lotwright::single::rules::Rule;
 use lotwright::solve::{self, Status};
 
@@ -240,112 +240,162 @@ fn brute_force(scenario: &Scenario, caps: &[u32]) -> Option<f64> {
     }
 }
 
-/// Two parents sharing a component (one unit of it each), three buckets: the joint MILP's cost is
-/// the least over every whole plan, and no level-by-level plan is cheaper.
+/// Two parents sharing a component (one unit of it each), three buckets,
+/// drawn from `rng`: random demand of 0 or 1, costs, open orders, a lead
+/// time on the first parent in some cases, component stock, and in every
+/// third case a tight machine for the component.
+fn tiny_bill(rng: &mut Lcg, case: usize) -> Scenario {
+    let periods = 3;
+    let mut items = Vec::new();
+    for i in 0..3 {
+        let demand: Vec<f64> = (0..periods)
+            .map(|_| if i < 2 { rng.below(2) as f64 } else { 0.0 })
+            .collect();
+        let mut item = Item::simple(
+            ["P", "Q", "C"][i],
+            &demand,
+            2.0 + rng.below(9) as f64,
+            0.5 + rng.below(4) as f64 * 0.5,
+        );
+        item.lot_multiple = Some(1.0);
+        item.unit_cost = vec![rng.below(2) as f64; periods];
+        // An open order now and then, whose components were issued
+        // before the horizon, and a lead time on the first parent.
+        if i < 2 && rng.below(3) == 0 {
+            item.receipts[rng.below(periods as u64) as usize] = 1.0;
+        }
+        if i == 0 && case % 4 == 1 {
+            item.lead_time = 1;
+            item.initial_stock = item.demand[0];
+        }
+        // The component has stock for the first bucket's releases.
+        if i == 2 {
+            item.initial_stock = rng.below(2) as f64;
+            item.lead_time = case % 2;
+        }
+        items.push(item);
+    }
+    let mut scenario = common::scenario(items);
+    scenario.bom = vec![
+        BomLine {
+            parent: 0,
+            component: 2,
+            quantity_per: 1.0,
+            scrap_rate: 0.0,
+        },
+        BomLine {
+            parent: 1,
+            component: 2,
+            quantity_per: 1.0,
+            scrap_rate: 0.0,
+        },
+    ];
+    if case % 3 == 0 {
+        // The component's machine, tight enough to bind.
+        scenario.resources.push(Resource {
+            id: "M".into(),
+            unit: "capacity units".into(),
+            capacity: vec![4.0; periods],
+            overtime_capacity: vec![1.0; periods],
+            overtime_cost: 3.0,
+            capacity_cost: None,
+        });
+        scenario.routings.push(Routing {
+            item: 2,
+            resource: 0,
+            per_unit: 1.0,
+            setup_time: 0.5,
+        });
+    }
+    scenario
+}
+
+/// The joint MILP against every whole plan of a tiny bill: proven optimal
+/// at the least cost, or infeasible where no plan is; no level-by-level
+/// plan cheaper. `extra` widens every item's cap (for prices per unit
+/// moved, which can make receiving a previous plan's quantity worth it).
+/// Returns whether the bill had a plan.
+fn joint_equals_enumeration(scenario: &Scenario, case: usize, extra: u32) -> bool {
+    let outcome =
+        solve::plan_scenario(scenario, &solve::Options::default()).expect("a plan of a tiny bill");
+    let joint = &outcome.comparison[0];
+    assert_eq!(joint.method, solve::EXACT);
+    // A parent is worth making beyond its own demand only to use up the
+    // component's stock (when the component is dearer to hold), so at
+    // most that stock more; the component is needed at most for all the
+    // parents make (one each).
+    let own = |i: usize| scenario.items[i].demand.iter().sum::<f64>() as u32;
+    let stock = scenario.items[2].initial_stock as u32;
+    let (p, q) = (own(0) + stock + extra, own(1) + stock + extra);
+    match brute_force(scenario, &[p, q, p + q]) {
+        None => {
+            assert_eq!(joint.status, Status::Infeasible, "case {case}");
+            false
+        }
+        Some(best) => {
+            assert_eq!(joint.status, Status::Optimal, "case {case}");
+            assert!(joint.evaluation.feasible, "case {case}");
+            common::assert_cost_eq(
+                joint.total_cost(),
+                best,
+                &format!("case {case}: {:?} {:?}", joint.plan, scenario.items),
+            );
+            assert!(joint.lower_bound.expect("a bound") <= best + 1e-6);
+            for other in &outcome.comparison[1..] {
+                if other.evaluation.feasible {
+                    assert!(
+                        joint.total_cost() <= other.total_cost() + 1e-9,
+                        "case {case}: {} is cheaper than the joint plan",
+                        other.method
+                    );
+                }
+            }
+            true
+        }
+    }
+}
+
+/// The joint MILP's cost is the least over every whole plan of tiny
+/// bills, and no level-by-level plan is cheaper.
 #[test]
 fn the_joint_plan_is_the_cheapest_whole_plan_on_tiny_bills() {
     let mut rng = Lcg(7);
+    let compared = (0..12)
+        .filter(|&case| joint_equals_enumeration(&tiny_bill(&mut rng, case), case, 0))
+        .count();
+    assert!(compared >= 8, "only {compared} tiny bills had a plan");
+}
+
+/// The same with a price per unit moved from a previous plan
+/// (`model::QuantityChange`, as `roll --change-cost-per-unit` sets it):
+/// the joint program's deviation columns price |x - p| exactly, as the one
+/// evaluation does, on every item and level.
+#[test]
+fn a_price_per_unit_moved_keeps_the_joint_plan_the_cheapest_whole_plan() {
+    let mut rng = Lcg(11);
     let mut compared = 0;
-    for case in 0..12 {
-        let periods = 3;
-        let mut items = Vec::new();
-        for i in 0..3 {
-            let demand: Vec<f64> = (0..periods)
-                .map(|_| if i < 2 { rng.below(2) as f64 } else { 0.0 })
+    for case in 0..6 {
+        let mut scenario = tiny_bill(&mut rng, case);
+        for item in &mut scenario.items {
+            let previous = (0..3)
+                .map(|_| match rng.below(3) {
+                    0 => None,
+                    k => Some((k - 1) as f64),
+                })
                 .collect();
-            let mut item = Item::simple(
-                ["P", "Q", "C"][i],
-                &demand,
-                2.0 + rng.below(9) as f64,
-                0.5 + rng.below(4) as f64 * 0.5,
-            );
-            item.lot_multiple = Some(1.0);
-            item.unit_cost = vec![rng.below(2) as f64; periods];
-            // An open order now and then, whose components were issued
-            // before the horizon, and a lead time on the first parent.
-            if i < 2 && rng.below(3) == 0 {
-                item.receipts[rng.below(periods as u64) as usize] = 1.0;
-            }
-            if i == 0 && case % 4 == 1 {
-                item.lead_time = 1;
-                item.initial_stock = item.demand[0];
-            }
-            // The component has stock for the first bucket's releases.
-            if i == 2 {
-                item.initial_stock = rng.below(2) as f64;
-                item.lead_time = (case % 2) as usize;
-            }
-            items.push(item);
-        }
-        let mut scenario = common::scenario(items);
-        scenario.bom = vec![
-            BomLine {
-                parent: 0,
-                component: 2,
-                quantity_per: 1.0,
-                scrap_rate: 0.0,
-            },
-            BomLine {
-                parent: 1,
-                component: 2,
-                quantity_per: 1.0,
-                scrap_rate: 0.0,
-            },
-        ];
-        if case % 3 == 0 {
-            // The component's machine, tight enough to bind.
-            scenario.resources.push(Resource {
-                id: "M".into(),
-                unit: "capacity units".into(),
-                capacity: vec![4.0; periods],
-                overtime_capacity: vec![1.0; periods],
-                overtime_cost: 3.0,
-                capacity_cost: None,
-            });
-            scenario.routings.push(Routing {
-                item: 2,
-                resource: 0,
-                per_unit: 1.0,
-                setup_time: 0.5,
+            item.quantity_change = Some(QuantityChange {
+                per_unit: 0.5 + rng.below(6) as f64,
+                previous,
             });
         }
-        let outcome = solve::plan_scenario(&scenario, &solve::Options::default())
-            .expect("a plan of a tiny bill");
-        let joint = &outcome.comparison[0];
-        assert_eq!(joint.method, solve::EXACT);
-        // A parent is worth making beyond its own demand only to use up
-        // the component's stock (when the component is dearer to hold), so
-        // at most that stock more; the component is needed at most for all
-        // the parents make (one each).
-        let own = |i: usize| scenario.items[i].demand.iter().sum::<f64>() as u32;
-        let stock = scenario.items[2].initial_stock as u32;
-        let (p, q) = (own(0) + stock, own(1) + stock);
-        let best = brute_force(&scenario, &[p, q, p + q]);
-        match best {
-            None => assert_eq!(joint.status, Status::Infeasible, "case {case}"),
-            Some(best) => {
-                compared += 1;
-                assert_eq!(joint.status, Status::Optimal, "case {case}");
-                assert!(joint.evaluation.feasible, "case {case}");
-                common::assert_cost_eq(
-                    joint.total_cost(),
-                    best,
-                    &format!("case {case}: {:?} {:?}", joint.plan, scenario.items),
-                );
-                assert!(joint.lower_bound.expect("a bound") <= best + 1e-6);
-                for other in &outcome.comparison[1..] {
-                    if other.evaluation.feasible {
-                        assert!(
-                            joint.total_cost() <= other.total_cost() + 1e-9,
-                            "case {case}: {} is cheaper than the joint plan",
-                            other.method
-                        );
-                    }
-                }
-            }
+        if joint_equals_enumeration(&scenario, case, 1) {
+            compared += 1;
         }
     }
-    assert!(compared >= 8, "only {compared} tiny bills had a plan");
+    assert!(
+        compared >= 4,
+        "only {compared} priced tiny bills had a plan"
+    );
 }
 
 /// Scrap is issued on top of the quantity per: 10 parents released with
