@@ -290,7 +290,7 @@ fn tiny_bill(rng: &mut Lcg, case: usize) -> Scenario {
             scrap_rate: 0.0,
         },
     ];
-    if case % 3 == 0 {
+    if case.is_multiple_of(3) {
         // The component's machine, tight enough to bind.
         scenario.resources.push(Resource {
             id: "M".into(),
