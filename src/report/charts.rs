@@ -28,10 +28,40 @@ fn fill(colour: &str) -> String {
     format!("fill=\"{colour}\"")
 }
 
-/// Cost by method, stacked by kind, without unit cost: unit cost is much
-/// larger than the rest and is listed beside the bars with the total.
-pub fn cost_by_method(outcome: &Outcome, currency: &str) -> String {
-    let rows = &outcome.comparison;
+/// One bar of a stacked cost chart: the method's label, its costs, whether
+/// it is the exact method (bold), and the figures written beside the bar,
+/// one per column, each with its SVG text style.
+pub(crate) struct CostBar<'a> {
+    pub label: &'a str,
+    pub costs: &'a crate::eval::Costs,
+    pub exact: bool,
+    pub figures: Vec<(String, String)>,
+}
+
+/// A column of figures beside the bars: its heading, where its text is
+/// anchored and how (`end` or `start`).
+pub(crate) struct Column {
+    pub heading: &'static str,
+    pub x: f64,
+    pub anchor: &'static str,
+}
+
+/// The style of a figure that is bold on the exact method's bar.
+pub(crate) fn emphasis(exact: bool) -> String {
+    if exact { BOLD } else { "" }.to_string()
+}
+
+const BOLD: &str = "font-weight=\"600\"";
+
+/// Costs by method as stacked bars (setup and holding always, backlog and
+/// overtime where a bar has any), unit cost left out, with columns of
+/// figures to the right of the bars.
+pub(crate) fn stacked_costs(
+    (id, title, axis): (&str, &str, &str),
+    bars_right: f64,
+    columns: &[Column],
+    rows: &[CostBar],
+) -> String {
     type Kind = (&'static str, &'static str, fn(&crate::eval::Costs) -> f64);
     let all_kinds: [Kind; 4] = [
         ("setup", BLUE, |c| c.setup),
@@ -42,33 +72,20 @@ pub fn cost_by_method(outcome: &Outcome, currency: &str) -> String {
     let kinds: Vec<&Kind> = all_kinds
         .iter()
         .filter(|(name, _, value)| {
-            *name == "setup"
-                || *name == "holding"
-                || rows.iter().any(|r| value(&r.evaluation.costs) > 0.0)
+            *name == "setup" || *name == "holding" || rows.iter().any(|r| value(r.costs) > 0.0)
         })
         .collect();
-    let (width, left, bars_right) = (1000.0, 190.0, 600.0);
-    let (total_right, unit_right, plan_left) = (730.0, 870.0, 890.0);
+    let (width, left) = (1000.0, 190.0);
     let (top, row_height) = (56.0, 30.0);
     let height = top + row_height * rows.len() as f64 + 40.0;
-    let mut svg = Svg::new(
-        "cost-by-method",
-        width,
-        height,
-        "Cost by method: setup, holding, backlog and overtime cost",
-    );
+    let mut svg = Svg::new(id, width, height, title);
     let mut x = left;
     for (name, colour, _) in &kinds {
         x = svg.legend(x, 18.0, &format!("{name} cost"), &fill(colour), false);
     }
     let widest = rows
         .iter()
-        .map(|r| {
-            kinds
-                .iter()
-                .map(|(_, _, v)| v(&r.evaluation.costs))
-                .sum::<f64>()
-        })
+        .map(|r| kinds.iter().map(|(_, _, v)| v(r.costs)).sum::<f64>())
         .fold(0.0, f64::max);
     let (values, step) = ticks(0.0, widest.max(1.0), 5);
     let scale = Scale::new((0.0, *values.last().unwrap_or(&1.0)), (left, bars_right));
@@ -79,7 +96,6 @@ pub fn cost_by_method(outcome: &Outcome, currency: &str) -> String {
         let label = grouped(*v, step_decimals(step));
         svg.text(x, bottom + 16.0, &label, "middle", AXIS_TEXT);
     }
-    let axis = format!("cost {currency}");
     svg.text(
         (left + bars_right) / 2.0,
         bottom + 32.0,
@@ -87,47 +103,81 @@ pub fn cost_by_method(outcome: &Outcome, currency: &str) -> String {
         "middle",
         AXIS_TEXT,
     );
-    let bold = "font-weight=\"600\"";
-    svg.text(total_right, top - 12.0, "total cost", "end", bold);
-    svg.text(unit_right, top - 12.0, "of which unit cost", "end", bold);
-    svg.text(plan_left, top - 12.0, "plan", "start", bold);
+    for column in columns {
+        svg.text(column.x, top - 12.0, column.heading, column.anchor, BOLD);
+    }
     for (k, r) in rows.iter().enumerate() {
         let y = top + row_height * k as f64;
-        let emphasis = if r.is_exact() { bold } else { "" };
-        svg.text(left - 8.0, y + 18.0, r.method, "end", emphasis);
+        let style = if r.exact { BOLD } else { "" };
+        svg.text(left - 8.0, y + 18.0, r.label, "end", style);
         let mut at = 0.0;
         for (name, colour, value) in &kinds {
-            let v = value(&r.evaluation.costs);
+            let v = value(r.costs);
             if v > 0.0 {
-                let x0 = scale.map(at);
-                let x1 = scale.map(at + v);
-                let tip = format!("{}: {name} cost {}", r.method, super::money(v));
+                let (x0, x1) = (scale.map(at), scale.map(at + v));
+                let tip = format!("{}: {name} cost {}", r.label, super::money(v));
                 svg.rect(x0, y + 5.0, x1 - x0, 18.0, &fill(colour), Some(&tip));
                 at += v;
             }
         }
-        svg.text(
-            total_right,
-            y + 18.0,
-            &super::money(r.total_cost()),
-            "end",
-            emphasis,
-        );
-        svg.text(
-            unit_right,
-            y + 18.0,
-            &super::money(r.evaluation.costs.unit),
-            "end",
-            AXIS_TEXT,
-        );
-        let (word, style) = if r.evaluation.feasible {
-            (r.status.name(), AXIS_TEXT)
-        } else {
-            ("infeasible", "fill=\"#b00\" font-weight=\"600\"")
-        };
-        svg.text(plan_left, y + 18.0, word, "start", style);
+        for (column, (text, style)) in columns.iter().zip(&r.figures) {
+            svg.text(column.x, y + 18.0, text, column.anchor, style);
+        }
     }
     svg.finish()
+}
+
+/// Cost by method, stacked by kind, without unit cost: unit cost is much
+/// larger than the rest and is listed beside the bars with the total.
+pub fn cost_by_method(outcome: &Outcome, currency: &str) -> String {
+    let rows: Vec<CostBar> = outcome
+        .comparison
+        .iter()
+        .map(|r| {
+            let (word, style) = if r.evaluation.feasible {
+                (r.status.name(), AXIS_TEXT)
+            } else {
+                ("infeasible", "fill=\"#b00\" font-weight=\"600\"")
+            };
+            CostBar {
+                label: r.method,
+                costs: &r.evaluation.costs,
+                exact: r.is_exact(),
+                figures: vec![
+                    (super::money(r.total_cost()), emphasis(r.is_exact())),
+                    (super::money(r.evaluation.costs.unit), AXIS_TEXT.to_string()),
+                    (word.to_string(), style.to_string()),
+                ],
+            }
+        })
+        .collect();
+    let columns = [
+        Column {
+            heading: "total cost",
+            x: 730.0,
+            anchor: "end",
+        },
+        Column {
+            heading: "of which unit cost",
+            x: 870.0,
+            anchor: "end",
+        },
+        Column {
+            heading: "plan",
+            x: 890.0,
+            anchor: "start",
+        },
+    ];
+    stacked_costs(
+        (
+            "cost-by-method",
+            "Cost by method: setup, holding, backlog and overtime cost",
+            &format!("cost {currency}"),
+        ),
+        600.0,
+        &columns,
+        &rows,
+    )
 }
 
 /// A bucket's start as people read it on an axis: `4 Jan`, or `Jan 2027`

@@ -3,9 +3,10 @@
 //! every weekly plan's status. They draw the run's figures as they are.
 
 use super::{
-    axis_date, fill, value_axis, AXIS_TEXT, BLUE, GREEN, GRID, ORANGE, PURPLE, SKY, VERMILION,
+    axis_date, emphasis, fill, stacked_costs, value_axis, Column, CostBar, AXIS_TEXT, BLUE, GREEN,
+    ORANGE, PURPLE, SKY, VERMILION,
 };
-use crate::report::svg::{grouped, step_decimals, ticks, Scale, Svg};
+use crate::report::svg::{ticks, Scale, Svg};
 use crate::report::table::RollRun;
 use crate::roll::RollResult;
 use crate::solve::Status;
@@ -76,114 +77,65 @@ fn week_axis(svg: &mut Svg, run: &RollRun, x: &Scale, baseline: f64, min_gap: f6
 /// the units cut beside each bar. Unit cost is left out, as in the
 /// terminal's realised table.
 pub fn realised_cost(run: &RollRun, currency: &str) -> String {
-    type Kind = (&'static str, &'static str, fn(&crate::eval::Costs) -> f64);
-    let all_kinds: [Kind; 4] = [
-        ("setup", BLUE, |c| c.setup),
-        ("holding", ORANGE, |c| c.holding),
-        ("backlog", PURPLE, |c| c.backlog),
-        ("overtime", VERMILION, |c| c.overtime),
-    ];
-    let rows = run.results;
-    let kinds: Vec<&Kind> = all_kinds
-        .iter()
-        .filter(|(name, _, value)| {
-            *name == "setup"
-                || *name == "holding"
-                || rows.iter().any(|r| value(&r.realised.costs) > 0.0)
-        })
-        .collect();
-    let (width, left, bars_right) = (1000.0, 190.0, 640.0);
-    let (cost_right, fill_right, cut_right) = (770.0, 870.0, 985.0);
-    let (top, row_height) = (56.0, 30.0);
-    let height = top + row_height * rows.len() as f64 + 40.0;
-    let mut svg = Svg::new(
-        "realised-cost",
-        width,
-        height,
-        "Realised cost by method: setup, holding, backlog and overtime cost of the orders carried out",
-    );
-    let mut x = left;
-    for (name, colour, _) in &kinds {
-        x = svg.legend(x, 18.0, &format!("{name} cost"), &fill(colour), false);
-    }
-    let widest = rows
+    let any_cut = run.results.iter().any(|r| r.units_cut() > 0.0);
+    let rows: Vec<CostBar> = run
+        .results
         .iter()
         .map(|r| {
-            kinds
-                .iter()
-                .map(|(_, _, v)| v(&r.realised.costs))
-                .sum::<f64>()
-        })
-        .fold(0.0, f64::max);
-    let (values, step) = ticks(0.0, widest.max(1.0), 5);
-    let scale = Scale::new((0.0, *values.last().unwrap_or(&1.0)), (left, bars_right));
-    let bottom = top + row_height * rows.len() as f64;
-    for v in &values {
-        let x = scale.map(*v);
-        svg.line(x, top - 6.0, x, bottom, GRID);
-        svg.text(
-            x,
-            bottom + 16.0,
-            &grouped(*v, step_decimals(step)),
-            "middle",
-            AXIS_TEXT,
-        );
-    }
-    let axis = format!("realised cost without unit cost {currency}");
-    svg.text(
-        (left + bars_right) / 2.0,
-        bottom + 32.0,
-        axis.trim_end(),
-        "middle",
-        AXIS_TEXT,
-    );
-    let bold = "font-weight=\"600\"";
-    svg.text(cost_right, top - 12.0, "cost", "end", bold);
-    svg.text(fill_right, top - 12.0, "fill rate", "end", bold);
-    let any_cut = rows.iter().any(|r| r.units_cut() > 0.0);
-    if any_cut {
-        svg.text(cut_right, top - 12.0, "units cut", "end", bold);
-    }
-    for (k, r) in rows.iter().enumerate() {
-        let y = top + row_height * k as f64;
-        let emphasis = if is_exact(r) { bold } else { "" };
-        svg.text(left - 8.0, y + 18.0, &r.label, "end", emphasis);
-        let costs = &r.realised.costs;
-        let mut at = 0.0;
-        for (name, colour, value) in &kinds {
-            let v = value(costs);
-            if v > 0.0 {
-                let (x0, x1) = (scale.map(at), scale.map(at + v));
-                let tip = format!("{}: {name} cost {}", r.label, crate::report::money(v));
-                svg.rect(x0, y + 5.0, x1 - x0, 18.0, &fill(colour), Some(&tip));
-                at += v;
+            let costs = &r.realised.costs;
+            let mut figures = vec![
+                (
+                    crate::report::money(costs.total() - costs.unit),
+                    emphasis(is_exact(r)),
+                ),
+                (
+                    format!("{:.1} %", 100.0 * r.realised.fill_rate()),
+                    AXIS_TEXT.to_string(),
+                ),
+            ];
+            if any_cut {
+                figures.push((
+                    crate::report::quantity(r.units_cut().round()),
+                    AXIS_TEXT.to_string(),
+                ));
             }
-        }
-        svg.text(
-            cost_right,
-            y + 18.0,
-            &crate::report::money(costs.total() - costs.unit),
-            "end",
-            emphasis,
-        );
-        svg.text(
-            fill_right,
-            y + 18.0,
-            &format!("{:.1} %", 100.0 * r.realised.fill_rate()),
-            "end",
-            AXIS_TEXT,
-        );
-        if any_cut {
-            svg.text(
-                cut_right,
-                y + 18.0,
-                &crate::report::quantity(r.units_cut().round()),
-                "end",
-                AXIS_TEXT,
-            );
-        }
+            CostBar {
+                label: &r.label,
+                costs,
+                exact: is_exact(r),
+                figures,
+            }
+        })
+        .collect();
+    let mut columns = vec![
+        Column {
+            heading: "cost",
+            x: 770.0,
+            anchor: "end",
+        },
+        Column {
+            heading: "fill rate",
+            x: 870.0,
+            anchor: "end",
+        },
+    ];
+    if any_cut {
+        columns.push(Column {
+            heading: "units cut",
+            x: 985.0,
+            anchor: "end",
+        });
     }
-    svg.finish()
+    stacked_costs(
+        (
+            "realised-cost",
+            "Realised cost by method: setup, holding, backlog and overtime cost of the orders carried out",
+            &format!("realised cost without unit cost {currency}"),
+        ),
+        640.0,
+        &columns,
+        &rows,
+    )
 }
 
 /// Units moved by each plan against the plan before, over the weeks both
