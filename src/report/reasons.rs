@@ -75,37 +75,25 @@ fn shortage(s: &ItemShortage) -> String {
 }
 
 fn breach(b: &Breach) -> String {
+    // "a lot of 40 below min_lot 50": what was planned against its rule.
+    let against = |subject: &str, relation: &str| {
+        format!(
+            "{subject} {} {relation} {}",
+            quantity(b.quantity),
+            quantity(b.limit)
+        )
+    };
     let what = match b.kind {
-        ViolationKind::BelowMinLot => format!(
-            "a lot of {} below min_lot {}",
-            quantity(b.quantity),
-            quantity(b.limit)
-        ),
-        ViolationKind::NotLotMultiple => format!(
-            "a lot of {} not a multiple of {}",
-            quantity(b.quantity),
-            quantity(b.limit)
-        ),
-        ViolationKind::AboveMaxLot => format!(
-            "a lot of {} above max_lot {}",
-            quantity(b.quantity),
-            quantity(b.limit)
-        ),
+        ViolationKind::BelowMinLot => against("a lot of", "below min_lot"),
+        ViolationKind::NotLotMultiple => against("a lot of", "not a multiple of"),
+        ViolationKind::AboveMaxLot => against("a lot of", "above max_lot"),
         ViolationKind::ReleaseBeforeStart => format!(
             "an order past due (released in period {}, before the horizon)",
             quantity(b.limit)
         ),
         ViolationKind::InsideFrozenHorizon => "a new order in the frozen horizon".to_string(),
-        ViolationKind::SafetyStock => format!(
-            "stock {} below safety stock {}",
-            quantity(b.quantity),
-            quantity(b.limit)
-        ),
-        ViolationKind::EndingStock => format!(
-            "ending stock {} below its target {}",
-            quantity(b.quantity),
-            quantity(b.limit)
-        ),
+        ViolationKind::SafetyStock => against("stock", "below safety stock"),
+        ViolationKind::EndingStock => against("ending stock", "below its target"),
     };
     let at = if b.periods == 1 {
         format!("in period {}", b.period)
@@ -113,4 +101,48 @@ fn breach(b: &Breach) -> String {
         format!("from period {} ({} times)", b.period, b.periods)
     };
     format!("item {}: {what} {at}", b.item)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn broken(kind: ViolationKind, quantity: f64, limit: f64, periods: usize) -> String {
+        breach(&Breach {
+            item: "A".into(),
+            period: 3,
+            kind,
+            quantity,
+            limit,
+            periods,
+        })
+    }
+
+    #[test]
+    fn each_broken_rule_reads_as_a_sentence() {
+        assert_eq!(
+            broken(ViolationKind::BelowMinLot, 40.0, 50.0, 1),
+            "item A: a lot of 40 below min_lot 50 in period 3"
+        );
+        assert_eq!(
+            broken(ViolationKind::NotLotMultiple, 45.0, 10.0, 2),
+            "item A: a lot of 45 not a multiple of 10 from period 3 (2 times)"
+        );
+        assert_eq!(
+            broken(ViolationKind::AboveMaxLot, 120.0, 100.0, 1),
+            "item A: a lot of 120 above max_lot 100 in period 3"
+        );
+        assert_eq!(
+            broken(ViolationKind::SafetyStock, 5.0, 20.0, 1),
+            "item A: stock 5 below safety stock 20 in period 3"
+        );
+        assert_eq!(
+            broken(ViolationKind::EndingStock, 0.0, 30.0, 1),
+            "item A: ending stock 0 below its target 30 in period 3"
+        );
+        assert_eq!(
+            broken(ViolationKind::InsideFrozenHorizon, 10.0, 0.0, 1),
+            "item A: a new order in the frozen horizon in period 3"
+        );
+    }
 }
