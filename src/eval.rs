@@ -271,12 +271,15 @@ impl Evaluation {
         if demand <= 0.0 {
             return 1.0;
         }
-        let met: f64 = self
-            .items
+        (self.units_met() / demand).min(1.0)
+    }
+
+    /// Units of requirement met from stock on time, over every item.
+    pub fn units_met(&self) -> f64 {
+        self.items
             .iter()
             .map(|r| r.fill_rate * r.gross_requirement.iter().sum::<f64>())
-            .sum();
-        (met / demand).min(1.0)
+            .sum()
     }
 }
 

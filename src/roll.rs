@@ -215,6 +215,8 @@ impl Week {
 /// The whole run of one method.
 #[derive(Debug, Clone)]
 pub struct RollResult {
+    /// The method's name (`exact` or a rule's), whatever the label.
+    pub method: String,
     /// The method, with `+change-cost` when a penalty was priced (and
     /// `+per-unit` when units moved were).
     pub label: String,
@@ -270,11 +272,7 @@ impl RollResult {
     /// was met.
     pub fn cost_per_unit_served(&self) -> Option<f64> {
         let e = &self.realised;
-        let met: f64 = e
-            .items
-            .iter()
-            .map(|r| r.fill_rate * r.gross_requirement.iter().sum::<f64>())
-            .sum();
+        let met = e.units_met();
         let c = &e.costs;
         (met > 1e-9).then(|| (c.total() - c.unit) / met)
     }
@@ -534,6 +532,7 @@ pub fn roll(
         label.push_str("+per-unit");
     }
     Ok(RollResult {
+        method: options.method.clone(),
         label,
         change_cost: options.change_cost,
         change_cost_per_unit: options.change_cost_per_unit,

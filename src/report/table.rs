@@ -959,10 +959,22 @@ pub struct RollRun<'a> {
     pub end_correction: bool,
 }
 
+/// The columns of a rolling run's stability table (terminal and page).
+pub const STABILITY_COLUMNS: [&str; 8] = [
+    "method",
+    "orders changed",
+    "added",
+    "removed",
+    "resized",
+    "kept",
+    "units moved",
+    "instability",
+];
+
 /// The name of an exact run among several priced ones: the method and
 /// its prices of change, `exact C=100 U=0.5`.
 pub fn priced_label(result: &crate::roll::RollResult) -> String {
-    let method = result.label.split('+').next().unwrap_or_default();
+    let method = &result.method;
     format!(
         "{method} C={} U={}",
         money(result.change_cost),
@@ -1095,16 +1107,7 @@ pub fn roll(run: &RollRun) -> String {
         out,
         "\nPlan stability: each plan against the one before, over the {unit}s both cover"
     );
-    let mut grid = Grid::new(&[
-        "method",
-        "orders changed",
-        "added",
-        "removed",
-        "resized",
-        "kept",
-        "units moved",
-        "instability",
-    ]);
+    let mut grid = Grid::new(&STABILITY_COLUMNS);
     for r in run.results {
         let s = &r.stability;
         let instability = if s.quantity_before > 0.0 {

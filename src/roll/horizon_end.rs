@@ -49,14 +49,15 @@ pub fn economic_cycle(window: &Scenario, i: usize) -> Option<f64> {
         .then(|| (2.0 * setup / (holding * demand)).sqrt())
 }
 
-/// The share of a setup released in bucket `t` that a window charges.
-pub fn weight(window: &Scenario, i: usize, t: usize) -> f64 {
-    let item = &window.items[i];
-    let periods = window.periods();
-    let Some(cycle) = economic_cycle(window, i) else {
+/// The share of a setup released in bucket `t` that a window charges,
+/// for an item with this economic cycle (`economic_cycle`).
+pub fn weight(window: &Scenario, i: usize, cycle: Option<f64>, t: usize) -> f64 {
+    let Some(cycle) = cycle else {
         return 1.0;
     };
-    let cover = periods.saturating_sub(t + item.lead_time);
+    let cover = window
+        .periods()
+        .saturating_sub(t + window.items[i].lead_time);
     if cover == 0 {
         // Received after the window: the window sees none of its cover,
         // and such an order does nothing for it; its setup stays whole.
@@ -70,8 +71,9 @@ pub fn weight(window: &Scenario, i: usize, t: usize) -> f64 {
 pub fn correct(window: &mut Scenario) {
     let weights: Vec<Vec<f64>> = (0..window.items.len())
         .map(|i| {
+            let cycle = economic_cycle(window, i);
             (0..window.periods())
-                .map(|t| weight(window, i, t))
+                .map(|t| weight(window, i, cycle, t))
                 .collect()
         })
         .collect();

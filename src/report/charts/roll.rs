@@ -17,7 +17,7 @@ const GREY: &str = "#8c8c8c";
 /// The exact method's runs are set apart: bold labels, solid lines drawn
 /// on top of the rules'.
 fn is_exact(r: &RollResult) -> bool {
-    r.label == crate::solve::EXACT || r.label.starts_with("exact+")
+    r.method == crate::solve::EXACT
 }
 
 /// A line style per method: colour and dashes stay apart for eight

@@ -129,21 +129,7 @@ fn stability_section(run: &RollRun, out: &mut String) {
             ]
         })
         .collect();
-    table(
-        out,
-        "",
-        &[
-            "method",
-            "orders changed",
-            "added",
-            "removed",
-            "resized",
-            "kept",
-            "units moved",
-            "instability",
-        ],
-        &rows,
-    );
+    table(out, "", &crate::report::table::STABILITY_COLUMNS, &rows);
     out.push_str("<p class=\"small\">Orders changed: the mean share of orders added, removed or resized. Instability: units moved over the earlier plans' units.</p></section>");
 }
 

@@ -26,30 +26,26 @@ fn listed(labels: &[&str]) -> String {
     }
 }
 
-/// The method a run belongs to: `exact` for `exact+change-cost` and
-/// `exact C=100 U=0`.
-fn family(label: &str) -> &str {
-    label.split(['+', ' ']).next().unwrap_or(label)
-}
-
 /// Where the methods serve different shares of the demand: which costs
 /// least per unit met on time, and the least of another method beside it.
 fn per_unit_served(results: &[RollResult], cash: &Cash) -> Option<String> {
-    let mut ranked: Vec<(&str, f64)> = results
+    let mut ranked: Vec<(&RollResult, f64)> = results
         .iter()
-        .filter_map(|r| r.cost_per_unit_served().map(|c| (r.label.as_str(), c)))
+        .filter_map(|r| r.cost_per_unit_served().map(|c| (r, c)))
         .collect();
     ranked.sort_by(|a, b| a.1.total_cmp(&b.1));
     let (first, least) = *ranked.first()?;
     let mut sentence = format!(
-        "Per unit of demand met on time, which compares methods that serve different shares, {first} costs the least: {} a unit",
+        "Per unit of demand met on time, which compares methods that serve different shares, {} costs the least: {} a unit",
+        first.label,
         cash.of(least)
     );
-    if let Some(&(other, next)) = ranked.iter().find(|(l, _)| family(l) != family(first)) {
+    if let Some(&(other, next)) = ranked.iter().find(|(r, _)| r.method != first.method) {
         let _ = write!(
             sentence,
-            ", against {} for {other}, the least of another method",
-            cash.of(next)
+            ", against {} for {}, the least of another method",
+            cash.of(next),
+            other.label
         );
     }
     sentence.push('.');
